@@ -1,0 +1,6 @@
+/// <reference path="../.astro/types.d.ts" />
+declare namespace App {
+  interface Locals {
+    user?: import('./server/auth').SessionUser;
+  }
+}

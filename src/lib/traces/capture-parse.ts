@@ -1,0 +1,494 @@
+/**
+ * Capture reader (CONTRACT.md "Traces"): a two-channel oscilloscope capture saved as text, one sample per
+ * line (time, channel A, channel B), parsed straight from bytes into typed arrays.
+ *
+ * Accepted:
+ * - UTF-8 with or without BOM; LF or CRLF line ends; blank lines anywhere are skipped.
+ * - Preamble lines (anything that is not a row of numbers) before the header row. The header is the last
+ *   non-numeric line before the first numeric row; a file may also have no header (seconds and volts then).
+ * - Header units: the time column's name carries `s`, `ms`, `us` or `µs` (e.g. `time (ms)`, `Time[us]`,
+ *   `t_s`; seconds when none); a channel column carrying `mV` is in millivolts (volts otherwise).
+ * - Delimiter comma, semicolon or tab, chosen from the first numeric row (tab, else semicolon, else comma).
+ *   With semicolon or tab a decimal comma is allowed (`0,0015;4,98;0,12`). Values may be quoted.
+ * - Columns beyond the third are ignored. Up to MAX_CAPTURE_SAMPLES samples.
+ *
+ * Errors are thrown as CaptureError with the 1-based line number where there is one: no numeric rows,
+ * only one channel, a value that is not a number, time not increasing, too many samples. "Too short to hold
+ * two periods" is detected by the analysis (analyze.ts), which throws the same class with `line: null`.
+ *
+ * NOTE: the data rows are parsed by a hand-written byte loop (no per-line strings, no split, no
+ * parseFloat) because a full-size capture is about 48 MB; keep it allocation-free when editing.
+ */
+
+/** Most samples a capture may hold (CONTRACT.md "Traces"). */
+export const MAX_CAPTURE_SAMPLES = 2_000_000;
+
+/** Time unit named in the header's time column. */
+export type CaptureTimeUnit = 's' | 'ms' | 'us';
+
+/** Column delimiter of a capture. */
+export type CaptureDelimiter = ',' | ';' | '\t';
+
+/** Unit of a channel column. */
+export type ChannelUnit = 'V' | 'mV';
+
+/** The three sample arrays every analysis works on: time in seconds, channels in volts. */
+export interface CaptureData {
+  /** Sample instants, seconds, strictly increasing. */
+  time: Float64Array;
+  /** Channel A, volts. */
+  a: Float64Array;
+  /** Channel B, volts. */
+  b: Float64Array;
+}
+
+/** A parsed capture: the sample arrays plus what the reader found out about the file. */
+export interface CaptureParseResult extends CaptureData {
+  /** Number of samples (length of each array). */
+  samples: number;
+  delimiter: CaptureDelimiter;
+  /** True when the first data row used a decimal comma. */
+  decimalComma: boolean;
+  /** Unit of the time column in the file (the arrays are converted to seconds). */
+  timeUnit: CaptureTimeUnit;
+  /** Units of the channel columns in the file (the arrays are converted to volts). */
+  channelUnits: { a: ChannelUnit; b: ChannelUnit };
+  /** Header cells as written (trimmed), or null for a header-less file. */
+  header: string[] | null;
+  /** 1-based line of the header row, or null. */
+  headerLine: number | null;
+  /** Lines before the header row (preamble), excluding blank lines. */
+  preambleLines: number;
+  /** 1-based lines of the first and last data rows. */
+  firstDataLine: number;
+  lastDataLine: number;
+}
+
+/** A capture the reader or the analysis cannot use; `line` is 1-based, or null when no line is to blame. */
+export class CaptureError extends Error {
+  readonly line: number | null;
+
+  constructor(message: string, line: number | null = null) {
+    super(line === null ? message : `line ${line}: ${message}`);
+    this.name = 'CaptureError';
+    this.line = line;
+  }
+}
+
+const LF = 10;
+const CR = 13;
+const TAB = 9;
+const SPACE = 32;
+const QUOTE = 34;
+const COMMA = 44;
+const SEMICOLON = 59;
+const DOT = 46;
+const MINUS = 45;
+const PLUS = 43;
+const DIGIT_0 = 48;
+const DIGIT_9 = 57;
+const LOWER_E = 101;
+const UPPER_E = 69;
+
+/** Digits kept in a mantissa: below 2^53, so the integer part is exact. */
+const MAX_MANTISSA_DIGITS = 15;
+const POW10: Float64Array = (() => {
+  const p = new Float64Array(23);
+  p[0] = 1;
+  for (let i = 1; i < 23; i++) p[i] = p[i - 1]! * 10;
+  return p;
+})();
+
+const TIME_UNIT_SCALE: Readonly<Record<CaptureTimeUnit, number>> = { s: 1, ms: 1e-3, us: 1e-6 };
+
+/** Position just after the last number read by readNumber (module-level to keep the hot loop allocation-free). */
+let cursor = 0;
+
+/**
+ * Read a decimal number at `p` (optional sign, digits, '.' or — when `decimalComma` — ',' as the decimal
+ * mark, optional exponent). Sets `cursor` to the first byte after it; returns NaN when no digits are there.
+ */
+function readNumber(bytes: Uint8Array, p: number, n: number, decimalComma: boolean): number {
+  let c = p < n ? bytes[p]! : 0;
+  let negative = false;
+  if (c === MINUS) {
+    negative = true;
+    c = ++p < n ? bytes[p]! : 0;
+  } else if (c === PLUS) {
+    c = ++p < n ? bytes[p]! : 0;
+  }
+  let mantissa = 0;
+  let significant = 0;
+  let exponent = 0;
+  let digits = 0;
+  while (c >= DIGIT_0 && c <= DIGIT_9) {
+    if (significant < MAX_MANTISSA_DIGITS) {
+      mantissa = mantissa * 10 + (c - DIGIT_0);
+      if (mantissa !== 0) significant++;
+    } else {
+      exponent++;
+    }
+    digits++;
+    c = ++p < n ? bytes[p]! : 0;
+  }
+  if (c === DOT || (decimalComma && c === COMMA)) {
+    c = ++p < n ? bytes[p]! : 0;
+    while (c >= DIGIT_0 && c <= DIGIT_9) {
+      if (significant < MAX_MANTISSA_DIGITS) {
+        mantissa = mantissa * 10 + (c - DIGIT_0);
+        if (mantissa !== 0) significant++;
+        exponent--;
+      }
+      digits++;
+      c = ++p < n ? bytes[p]! : 0;
+    }
+  }
+  if (digits === 0) {
+    cursor = p;
+    return NaN;
+  }
+  if (c === LOWER_E || c === UPPER_E) {
+    let q = p + 1;
+    let e = q < n ? bytes[q]! : 0;
+    let expNegative = false;
+    if (e === MINUS) {
+      expNegative = true;
+      e = ++q < n ? bytes[q]! : 0;
+    } else if (e === PLUS) {
+      e = ++q < n ? bytes[q]! : 0;
+    }
+    let expValue = 0;
+    let expDigits = 0;
+    while (e >= DIGIT_0 && e <= DIGIT_9) {
+      if (expValue < 10000) expValue = expValue * 10 + (e - DIGIT_0);
+      expDigits++;
+      e = ++q < n ? bytes[q]! : 0;
+    }
+    if (expDigits === 0) {
+      cursor = q;
+      return NaN;
+    }
+    exponent += expNegative ? -expValue : expValue;
+    p = q;
+  }
+  cursor = p;
+  let value: number;
+  if (exponent === 0) value = mantissa;
+  else if (exponent > 0) value = exponent <= 22 ? mantissa * POW10[exponent]! : mantissa * Math.pow(10, exponent);
+  else value = exponent >= -22 ? mantissa / POW10[-exponent]! : mantissa / Math.pow(10, -exponent);
+  return negative ? -value : value;
+}
+
+/** Skip spaces, CR and quotes (and tabs unless tab is the delimiter) from `p`; returns the new position. */
+function skipBlanks(bytes: Uint8Array, p: number, n: number, tabIsDelimiter: boolean): number {
+  while (p < n) {
+    const c = bytes[p]!;
+    if (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tabIsDelimiter)) p++;
+    else break;
+  }
+  return p;
+}
+
+/** Index of the next LF at or after `p`, or `n`. */
+function lineEnd(bytes: Uint8Array, p: number, n: number): number {
+  const i = bytes.indexOf(LF, p);
+  return i < 0 ? n : i;
+}
+
+/** Delimiter of one line: tab if it has one, else semicolon, else comma. */
+function lineDelimiter(bytes: Uint8Array, start: number, end: number): number {
+  let semicolon = false;
+  let comma = false;
+  for (let i = start; i < end; i++) {
+    const c = bytes[i]!;
+    if (c === TAB) return TAB;
+    if (c === SEMICOLON) semicolon = true;
+    else if (c === COMMA) comma = true;
+  }
+  return semicolon ? SEMICOLON : comma ? COMMA : COMMA;
+}
+
+const decoder = new TextDecoder('utf-8');
+
+/** The text of bytes [start, end) for messages, trimmed and shortened. */
+function snippet(bytes: Uint8Array, start: number, end: number): string {
+  const text = decoder.decode(bytes.subarray(start, Math.min(end, start + 200))).replace(/\r/g, '').trim();
+  return text.length > 60 ? `${text.slice(0, 57)}...` : text;
+}
+
+/** Split a header line into trimmed cells; µ (U+00B5, U+03BC, or a lone Latin-1 0xB5 byte) becomes "u". */
+function headerCells(bytes: Uint8Array, start: number, end: number, delimiter: number): string[] {
+  let text = '';
+  for (let i = start; i < end; i++) {
+    const c = bytes[i]!;
+    if (c < 0x80) {
+      text += String.fromCharCode(c);
+    } else if ((c === 0xc2 && bytes[i + 1] === 0xb5) || (c === 0xce && bytes[i + 1] === 0xbc)) {
+      text += 'u';
+      i++;
+    } else if (c === 0xb5) {
+      text += 'u';
+    } else if (c >= 0xc0) {
+      text += '?'; // first byte of some other multi-byte character
+    }
+  }
+  const d = String.fromCharCode(delimiter);
+  return text
+    .replace(/^\uFEFF/, '')
+    .split(d)
+    .map((cell) => cell.replace(/["\r]/g, '').trim());
+}
+
+/** Lower-case alphanumeric tokens of a header cell: "Time [us]" -> ["time", "us"]. */
+function tokens(cell: string): string[] {
+  return cell.toLowerCase().split(/[^a-z0-9]+/).filter((t) => t.length > 0);
+}
+
+/** Time unit named in a time column header (`s`, `ms`, `us`; seconds when none is named). */
+export function parseTimeUnit(cell: string): CaptureTimeUnit {
+  for (const t of tokens(cell.replace(/[\u00b5\u03bc]/g, 'u'))) {
+    if (t === 's' || t === 'sec' || t === 'secs' || t === 'second' || t === 'seconds') return 's';
+    if (t === 'ms' || t === 'msec' || t === 'millisecond' || t === 'milliseconds') return 'ms';
+    if (t === 'us' || t === 'usec' || t === 'microsecond' || t === 'microseconds') return 'us';
+  }
+  return 's';
+}
+
+/** Unit of a channel column header: `mV` when it names millivolts, volts otherwise. */
+export function parseChannelUnit(cell: string): ChannelUnit {
+  for (const t of tokens(cell)) {
+    if (t === 'mv' || t === 'millivolt' || t === 'millivolts') return 'mV';
+  }
+  return 'V';
+}
+
+/** Outcome of looking at one line before the data: how many leading fields are numbers, and fields in all. */
+interface LineShape {
+  numericFields: number;
+  /** True when a third field exists after two numbers (it may be empty or not a number). */
+  hasThirdField: boolean;
+  thirdFieldEmpty: boolean;
+}
+
+/** Count the leading numeric fields (up to 3) of a line with the given delimiter. */
+function lineShape(bytes: Uint8Array, start: number, end: number, delimiter: number): LineShape {
+  const decimalComma = delimiter !== COMMA;
+  const tab = delimiter === TAB;
+  const shape: LineShape = { numericFields: 0, hasThirdField: false, thirdFieldEmpty: false };
+  let p = start;
+  for (let field = 0; field < 3; field++) {
+    p = skipBlanks(bytes, p, end, tab);
+    const value = readNumber(bytes, p, end, decimalComma);
+    if (Number.isNaN(value)) break;
+    const q = skipBlanks(bytes, cursor, end, tab);
+    if (q < end && bytes[q] !== delimiter) break; // text glued to the number: not a numeric field
+    shape.numericFields++;
+    if (q >= end) break; // the line ends here
+    p = q + 1; // past the delimiter
+    if (shape.numericFields === 2) {
+      shape.hasThirdField = true;
+      const r = skipBlanks(bytes, p, end, tab);
+      shape.thirdFieldEmpty = r >= end || bytes[r] === delimiter;
+    }
+  }
+  return shape;
+}
+
+/**
+ * Parse a capture file's bytes into time (s) and channel (V) arrays.
+ * @throws CaptureError when the file holds nothing the analysis can use (see the module comment).
+ */
+export function parseCapture(bytes: Uint8Array): CaptureParseResult {
+  const n = bytes.length;
+  let p = n >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
+  let lineNo = 0;
+
+  // Phase 1: find the first row of numbers; the last non-blank line before it is the header.
+  let headerStart = -1;
+  let headerEnd = -1;
+  let headerLineNo = 0;
+  let nonBlankBefore = 0;
+  let singleNumberLine = 0;
+  let dataStart = -1;
+  let delimiter = COMMA;
+  let firstShape: LineShape | null = null;
+  while (p < n) {
+    lineNo++;
+    const start = p;
+    const end = lineEnd(bytes, p, n);
+    p = end + 1;
+    const first = skipBlanks(bytes, start, end, false);
+    if (first >= end) continue;
+    const d = lineDelimiter(bytes, start, end);
+    const shape = lineShape(bytes, start, end, d);
+    if (shape.numericFields >= 2) {
+      dataStart = start;
+      delimiter = d;
+      firstShape = shape;
+      break;
+    }
+    if (shape.numericFields === 1 && singleNumberLine === 0) {
+      const after = skipBlanks(bytes, cursor, end, d === TAB);
+      if (after >= end) singleNumberLine = lineNo;
+    }
+    nonBlankBefore++;
+    headerStart = start;
+    headerEnd = end;
+    headerLineNo = lineNo;
+  }
+  if (dataStart < 0 || firstShape === null) {
+    if (singleNumberLine > 0) {
+      throw new CaptureError(
+        'only one column of numbers found; a capture needs three columns: time, channel A, channel B',
+        singleNumberLine,
+      );
+    }
+    throw new CaptureError(
+      'no rows of numbers found; a capture needs lines of time, channel A, channel B (e.g. "0.000125,4.98,0.12")',
+    );
+  }
+  const firstDataLine = lineNo;
+  if (firstShape.numericFields === 2 && (!firstShape.hasThirdField || firstShape.thirdFieldEmpty)) {
+    throw new CaptureError(
+      'only one channel: this row has a time and one value; the analysis needs both hall-sensor channels (time, A, B)',
+      firstDataLine,
+    );
+  }
+
+  // Units from the header, if there is one.
+  let header: string[] | null = null;
+  let timeUnit: CaptureTimeUnit = 's';
+  let unitA: ChannelUnit = 'V';
+  let unitB: ChannelUnit = 'V';
+  if (headerStart >= 0) {
+    header = headerCells(bytes, headerStart, headerEnd, delimiter);
+    timeUnit = parseTimeUnit(header[0] ?? '');
+    unitA = parseChannelUnit(header[1] ?? '');
+    unitB = parseChannelUnit(header[2] ?? '');
+  }
+  const timeScale = TIME_UNIT_SCALE[timeUnit];
+  const scaleA = unitA === 'mV' ? 1e-3 : 1;
+  const scaleB = unitB === 'mV' ? 1e-3 : 1;
+
+  // Phase 2: the data rows. Every row needs at least 5 bytes plus a line end, which bounds the row count.
+  const capacity = Math.min(MAX_CAPTURE_SAMPLES, Math.floor((n - dataStart + 1) / 6) + 1);
+  let time = new Float64Array(capacity);
+  let a = new Float64Array(capacity);
+  let b = new Float64Array(capacity);
+  const decimalComma = delimiter !== COMMA;
+  const tab = delimiter === TAB;
+  let sawDecimalComma = false;
+  let count = 0;
+  let previousTime = -Infinity;
+  let lastDataLine = firstDataLine;
+  p = dataStart;
+  lineNo = firstDataLine - 1;
+
+  while (p < n) {
+    lineNo++;
+    const start = p;
+    p = skipBlanks(bytes, p, n, tab);
+    if (p >= n) break;
+    if (bytes[p] === LF) {
+      p++;
+      continue;
+    }
+    // time
+    const t = readNumber(bytes, p, n, decimalComma);
+    if (Number.isNaN(t)) throw rowError(bytes, start, n, lineNo, 'time (column 1) is not a number');
+    if (count === 0 && decimalComma) sawDecimalComma = containsComma(bytes, p, cursor);
+    p = skipBlanks(bytes, cursor, n, tab);
+    if (p >= n || bytes[p] !== delimiter) throw rowError(bytes, start, n, lineNo, missing(bytes, p, n, 2));
+    p = skipBlanks(bytes, p + 1, n, tab);
+    // channel A
+    const va = readNumber(bytes, p, n, decimalComma);
+    if (Number.isNaN(va)) throw rowError(bytes, start, n, lineNo, 'channel A (column 2) is not a number');
+    p = skipBlanks(bytes, cursor, n, tab);
+    if (p >= n || bytes[p] !== delimiter) throw rowError(bytes, start, n, lineNo, missing(bytes, p, n, 3));
+    p = skipBlanks(bytes, p + 1, n, tab);
+    // channel B
+    const vb = readNumber(bytes, p, n, decimalComma);
+    if (Number.isNaN(vb)) throw rowError(bytes, start, n, lineNo, 'channel B (column 3) is not a number');
+    p = skipBlanks(bytes, cursor, n, tab);
+    if (p < n) {
+      const c = bytes[p]!;
+      if (c === delimiter) p = lineEnd(bytes, p, n) + 1;
+      else if (c === LF) p++;
+      else throw rowError(bytes, start, n, lineNo, 'unexpected text after channel B');
+    }
+    if (!(t > previousTime)) {
+      throw new CaptureError(
+        `time does not increase: ${formatNumber(t)} ${timeUnit} follows ${formatNumber(previousTime)} ${timeUnit} on the previous row; every row must be later than the one before`,
+        lineNo,
+      );
+    }
+    if (count >= capacity) {
+      if (capacity >= MAX_CAPTURE_SAMPLES) {
+        throw new CaptureError(
+          `more than ${MAX_CAPTURE_SAMPLES.toLocaleString('en-US')} samples; save a shorter capture or a lower sample rate`,
+          lineNo,
+        );
+      }
+      // Unreachable by the capacity bound, kept as a guard.
+      const grow = (x: Float64Array): Float64Array => {
+        const y = new Float64Array(Math.min(MAX_CAPTURE_SAMPLES, x.length * 2));
+        y.set(x);
+        return y;
+      };
+      time = grow(time);
+      a = grow(a);
+      b = grow(b);
+    }
+    previousTime = t;
+    time[count] = t * timeScale;
+    a[count] = va * scaleA;
+    b[count] = vb * scaleB;
+    count++;
+    lastDataLine = lineNo;
+  }
+
+  const fit = (x: Float64Array): Float64Array =>
+    count === x.length ? x : count * 2 < x.length ? x.slice(0, count) : x.subarray(0, count);
+  return {
+    time: fit(time),
+    a: fit(a),
+    b: fit(b),
+    samples: count,
+    delimiter: delimiter === TAB ? '\t' : delimiter === SEMICOLON ? ';' : ',',
+    decimalComma: sawDecimalComma,
+    timeUnit,
+    channelUnits: { a: unitA, b: unitB },
+    header,
+    headerLine: headerStart >= 0 ? headerLineNo : null,
+    preambleLines: headerStart >= 0 ? nonBlankBefore - 1 : 0,
+    firstDataLine,
+    lastDataLine,
+  };
+}
+
+/** True when bytes [from, to) contain a comma. */
+function containsComma(bytes: Uint8Array, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) if (bytes[i] === COMMA) return true;
+  return false;
+}
+
+/** Message for a row that ends (or has something else) where a delimiter and column `column` should be. */
+function missing(bytes: Uint8Array, p: number, n: number, column: number): string {
+  const name = column === 2 ? 'channel A (column 2)' : 'channel B (column 3)';
+  if (p >= n || bytes[p] === LF) {
+    return column === 3
+      ? 'only one channel: the row ends after channel A; the analysis needs both hall-sensor channels (time, A, B)'
+      : `the row ends before ${name}`;
+  }
+  return `expected the delimiter before ${name}, found other text`;
+}
+
+/** A CaptureError for a data row, quoting the row. */
+function rowError(bytes: Uint8Array, start: number, n: number, line: number, what: string): CaptureError {
+  return new CaptureError(`${what} ("${snippet(bytes, start, lineEnd(bytes, start, n))}")`, line);
+}
+
+/** Short number for messages. */
+function formatNumber(x: number): string {
+  return Number.isFinite(x) ? String(Number(x.toPrecision(10))) : String(x);
+}

@@ -1,0 +1,24 @@
+import { z } from 'zod';
+import { handle, idParam, json, readJson, methodNotAllowed } from '@/server/http';
+import { requirePermission, actorOf } from '@/server/auth';
+import { deleteDefect, getDefect, updateDefect } from '@/server/defects';
+
+export const GET = handle((ctx) => {
+  const user = requirePermission(ctx, 'read');
+  return json(getDefect(user, idParam(ctx.params.id, 'Defect')));
+});
+
+export const PATCH = handle(async (ctx) => {
+  const user = requirePermission(ctx, 'defect:write');
+  const id = idParam(ctx.params.id, 'Defect');
+  const body = await readJson(ctx, z.record(z.string(), z.unknown()));
+  return json(updateDefect(user, id, body, actorOf(user)));
+});
+
+export const DELETE = handle((ctx) => {
+  const user = requirePermission(ctx, 'import');
+  deleteDefect(user, idParam(ctx.params.id, 'Defect'), actorOf(user));
+  return new Response(null, { status: 204 });
+});
+
+export const ALL = methodNotAllowed('GET, PATCH, DELETE');
