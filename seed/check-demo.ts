@@ -78,6 +78,27 @@ const bad = vins.filter(
     /^[1-5]/.test(v.vin),
 );
 console.log(`VINs: ${vins.length}, invalid: ${bad.length}`, bad.slice(0, 3));
+// The app's own parsers, when they are there: no VIN warnings, model year decoded, every DTC accepted.
+try {
+  const { parseVin } = await import('../src/lib/vin/vin');
+  const { parseDtcList } = await import('../src/lib/dtc/dtc');
+  let vinIssues = 0;
+  for (const v of vins) {
+    const r = parseVin(v.vin);
+    if (!r.ok || r.warnings.length > 0 || !r.checkDigit.valid || r.modelYear !== v.model_year) vinIssues++;
+  }
+  const codes = all<{ dtcs: string }>('select distinct dtcs from defects where dtcs is not null');
+  const badCodes = codes.filter((c) => {
+    const r = parseDtcList(c.dtcs);
+    return !r.ok || r.codes.map((x) => x.display).join(' ') !== c.dtcs;
+  });
+  const mismatchRows = one<{ n: number }>(
+    `select count(*) n from defects f where f.dtcs is not null and f.dtcs != (select group_concat(x, ' ') from (select code || coalesce('-' || failure_type, '') x from defect_codes c where c.defect_id = f.id order by seq))`,
+  ).n;
+  console.log(`app parsers: VINs with issues ${vinIssues}; distinct dtcs ${codes.length}, rejected/not normalised ${badCodes.length}; defect_codes mismatches ${mismatchRows}`);
+} catch (e) {
+  console.log('app parsers not run:', (e as Error).message);
+}
 console.log('build months', one('select min(build_month) lo, max(build_month) hi from vehicles'));
 console.log('in service', one('select min(in_service_date) lo, max(in_service_date) hi, sum(retired_date is not null) retired from vehicles'));
 console.log('defects reported', one(`select date(min(reported_at)/1000,'unixepoch') lo, date(max(reported_at)/1000,'unixepoch') hi from defects`));

@@ -370,7 +370,7 @@ export const DEMO_VEHICLE_MODELS: readonly DemoVehicleModel[] = [
 /**
  * The planted stories, as offsets from the month of `today` so that they move with it.
  * With the default today (2026-11-30) the fleet is built 2021-11 .. 2025-11, the water story covers builds
- * 2022-10 .. 2023-03 and the mirror batch builds 2024-02 .. 2024-06.
+ * 2022-10 .. 2023-03 and the mirror batch builds 2024-02 .. 2024-07.
  */
 export const PLANTED = {
   /** Fleet build months: from today's month minus 60 to minus 12. */
@@ -385,22 +385,22 @@ export const PLANTED = {
      * Extra water-ingress failures on top of the ordinary ones, as a multiple of the module's base rate, by
      * parking, for the cohort at the wet coastal depots. With the repeats this gives about 4x for outdoor.
      */
-    extraRateMultiple: { outdoor: 2.0, mixed: 0.3, indoor: 0 } as Record<Parking, number>,
+    extraRateMultiple: { outdoor: 2.0, mixed: 1.0, indoor: 0.3 } as Record<Parking, number>,
     /** Chance that a cohort failure comes back on the same vehicle within 90 days (and again). */
     repeatChance: 0.4,
     secondRepeatChance: 0.25,
-    /** Cohort builds are 1.5 times as frequent (a fleet intake that winter). */
-    buildWeight: 1.5,
+    /** Cohort builds are twice as frequent (a fleet intake that winter). */
+    buildWeight: 2,
     /** Water failures show up in the wet half of the year; summer events are kept with this chance. */
     summerKeep: 0.4,
   },
   mirror: {
     moduleCode: 'MRM-4',
-    /** Starts 11 months after the water winter ends, lasts 5 build months. */
+    /** Starts 11 months after the water winter ends, lasts 6 build months. */
     monthsAfterWater: 11,
-    months: 5,
-    /** Extra mechanical failures everywhere, as a multiple of the base rate (about 3.2x in all). */
-    extraRateMultiple: 2.2,
+    months: 6,
+    /** Extra mechanical failures everywhere, as a multiple of the base rate (about 3.4x in all). */
+    extraRateMultiple: 2.4,
   },
   /** Ordinary repeat chance for any defect. */
   baseRepeatChance: 0.04,

@@ -1,6 +1,6 @@
 /**
- * Seeded randomness for the Monte Carlo replicates and the fleet generator: pure-rand's xoroshiro128+ behind a
- * small interface, seed derivation from text, Walker alias tables for multinomial draws, and Poisson draws.
+ * Seeded randomness for the Monte Carlo replicates and the fleet generator: xoshiro128** (Blackman & Vigna) seeded
+ * through pure-rand's xoroshiro128+, seed derivation from text, Walker alias tables for multinomial draws, and Poisson draws.
  */
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 
@@ -10,19 +10,48 @@ export interface Random {
   nextUint32(): number;
   /** Uniform double in [0, 1) with 53 random bits. */
   nextDouble(): number;
+  /** xoshiro128** state (four 32-bit words), read and written in place by the hot loops. */
+  readonly state: Int32Array;
 }
 
 const TWO_POW_32 = 4294967296;
 const TWO_POW_53 = 9007199254740992;
 
-/** Seeded xoroshiro128+ stream (pure-rand); the same seed always gives the same sequence. */
+/**
+ * Seeded stream: pure-rand's xoroshiro128+ expands the seed into the state of a xoshiro128** generator, whose
+ * state lives in a typed array so that the Monte Carlo loop can keep it in local variables.
+ */
 export function createRandom(seed: number): Random {
-  const gen = xoroshiro128plus(seed | 0);
+  const seeder = xoroshiro128plus(seed | 0);
+  const state = new Int32Array(4);
+  for (let i = 0; i < 4; i++) state[i] = seeder.next();
+  if ((state[0] | state[1] | state[2] | state[3]) === 0) state[0] = 1;
+  const nextUint32 = (): number => {
+    let s0 = state[0] as number;
+    let s1 = state[1] as number;
+    let s2 = state[2] as number;
+    let s3 = state[3] as number;
+    const m = Math.imul(s1, 5);
+    const result = Math.imul((m << 7) | (m >>> 25), 9);
+    const t = s1 << 9;
+    s2 ^= s0;
+    s3 ^= s1;
+    s1 ^= s2;
+    s0 ^= s3;
+    s2 ^= t;
+    s3 = (s3 << 11) | (s3 >>> 21);
+    state[0] = s0;
+    state[1] = s1;
+    state[2] = s2;
+    state[3] = s3;
+    return result >>> 0;
+  };
   return {
-    nextUint32: () => gen.next() >>> 0,
+    state,
+    nextUint32,
     nextDouble: () => {
-      const hi = gen.next() >>> 5; // 27 bits
-      const lo = gen.next() >>> 6; // 26 bits
+      const hi = nextUint32() >>> 5; // 27 bits
+      const lo = nextUint32() >>> 6; // 26 bits
       return (hi * 67108864 + lo) / TWO_POW_53;
     },
   };
@@ -89,16 +118,36 @@ export function createAliasTable(weights: ArrayLike<number>): AliasTable {
 }
 
 /**
- * Add `draws` multinomial draws over the alias table's bins into `counts` (one 32-bit number per draw: its high
- * bits pick the column, the rest decide between the column and its alias).
+ * Add `draws` multinomial draws over the alias table's bins into `counts`: one xoshiro128** output per draw, its
+ * high bits pick the column and the rest decide between the column and its alias. The generator state is kept in
+ * locals for the loop (same sequence as random.nextUint32()).
  */
 export function drawMultinomialInto(table: AliasTable, draws: number, random: Random, counts: Int32Array): void {
   const { size, accept, alias } = table;
+  const state = random.state;
+  let s0 = state[0] as number;
+  let s1 = state[1] as number;
+  let s2 = state[2] as number;
+  let s3 = state[3] as number;
+  const scale = size / TWO_POW_32;
   for (let k = 0; k < draws; k++) {
-    const x = (random.nextUint32() * size) / TWO_POW_32;
+    const m = Math.imul(s1, 5);
+    const out = Math.imul((m << 7) | (m >>> 25), 9) >>> 0;
+    const t = s1 << 9;
+    s2 ^= s0;
+    s3 ^= s1;
+    s1 ^= s2;
+    s0 ^= s3;
+    s2 ^= t;
+    s3 = (s3 << 11) | (s3 >>> 21);
+    const x = out * scale;
     const column = x | 0;
-    counts[(x - column < (accept[column] as number) ? column : (alias[column] as number))]++;
+    counts[x - column < (accept[column] as number) ? column : (alias[column] as number)]++;
   }
+  state[0] = s0;
+  state[1] = s1;
+  state[2] = s2;
+  state[3] = s3;
 }
 
 /** One Poisson(mean) draw: inversion for means up to 30, sums of Poisson(30) pieces above (exact either way). */

@@ -372,9 +372,9 @@ export function parseCapture(bytes: Uint8Array): CaptureParseResult {
 
   // Phase 2: the data rows. Every row needs at least 5 bytes plus a line end, which bounds the row count.
   const capacity = Math.min(MAX_CAPTURE_SAMPLES, Math.floor((n - dataStart + 1) / 6) + 1);
-  let time = new Float64Array(capacity);
-  let a = new Float64Array(capacity);
-  let b = new Float64Array(capacity);
+  let time: Float64Array = new Float64Array(capacity);
+  let a: Float64Array = new Float64Array(capacity);
+  let b: Float64Array = new Float64Array(capacity);
   const decimalComma = delimiter !== COMMA;
   const tab = delimiter === TAB;
   let sawDecimalComma = false;

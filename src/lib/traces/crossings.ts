@@ -36,7 +36,7 @@ export function findMidCrossings(time: ArrayLike<number>, values: ArrayLike<numb
   if (n === 0) return { timesS: new Float64Array(0), firstRising: true, initialHigh: false };
   const initialHigh = values[0]! > mid;
   let high = initialHigh;
-  let out = new Float64Array(256);
+  let out: Float64Array = new Float64Array(256);
   let count = 0;
   // Last sample index on the current side of mid (>= mid when high, <= mid when low).
   let lastSide = 0;

@@ -21,6 +21,8 @@ export interface StateLevelOptions {
   bins?: number;
   /** Default 'modal-mean'. */
   method?: StateLevelMethod;
+  /** Only samples within [lowest, highest] volts are binned (all samples when absent). */
+  rangeV?: readonly [number, number];
 }
 
 /** State levels found in a waveform, volts. */
@@ -44,14 +46,17 @@ export function computeStateLevels(values: ArrayLike<number>, opts: StateLevelOp
   const method = opts.method ?? 'modal-mean';
   if (!Number.isInteger(bins) || bins < 2) throw new RangeError('bins must be an integer of at least 2');
   const n = values.length;
-  if (n === 0) throw new RangeError('no samples');
+  const lo = opts.rangeV?.[0] ?? -Infinity;
+  const hi = opts.rangeV?.[1] ?? Infinity;
   let min = Infinity;
   let max = -Infinity;
   for (let i = 0; i < n; i++) {
     const x = values[i]!;
+    if (x < lo || x > hi) continue;
     if (x < min) min = x;
     if (x > max) max = x;
   }
+  if (min === Infinity) throw new RangeError('no samples');
   if (!(max > min)) {
     return { lowV: min, highV: min, midV: min, modeV: min, minV: min, maxV: min, binWidthV: 0 };
   }
@@ -62,6 +67,7 @@ export function computeStateLevels(values: ArrayLike<number>, opts: StateLevelOp
   const last = bins - 1;
   for (let i = 0; i < n; i++) {
     const x = values[i]!;
+    if (x < min || x > max) continue;
     let k = Math.floor((x - min) * scale);
     if (k > last) k = last;
     counts[k]!++;

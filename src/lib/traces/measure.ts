@@ -209,6 +209,34 @@ export function highTimePct(train: EdgeTrain, startS: number, endS: number): num
   return (100 * highS) / total;
 }
 
+/** Share of samples that must lie well away from the resting level for a narrow-swing channel to count as switching. */
+const MULTI_LEVEL_MIN_SHARE = 0.1;
+
+/**
+ * NOTE: with three levels (two bridged push-pull outputs fighting give a middle level while they disagree)
+ * the middle level can straddle the histogram's split, so both halves find the same mode and the IEEE levels
+ * come out almost equal although the signal swings widely. When at least 10% of the samples lie more than
+ * 2 x STUCK_MIN_SWING_V from that mode, the levels are taken instead as the modes of the samples below and
+ * above it (the outer levels). A flat, noisy line keeps its near-equal levels and is reported stuck.
+ */
+function multiLevelFallback(values: ArrayLike<number>, levels: StateLevels): StateLevels {
+  if (levels.highV - levels.lowV >= STUCK_MIN_SWING_V) return levels;
+  const away = 2 * STUCK_MIN_SWING_V;
+  const n = values.length;
+  let below = 0;
+  let above = 0;
+  for (let i = 0; i < n; i++) {
+    const x = values[i]!;
+    if (x < levels.modeV - away) below++;
+    else if (x > levels.modeV + away) above++;
+  }
+  if (below + above < MULTI_LEVEL_MIN_SHARE * n) return levels;
+  const side = MULTI_LEVEL_MIN_SHARE * n * 0.5;
+  const lowV = below >= side ? computeStateLevels(values, { rangeV: [-Infinity, levels.modeV - away] }).modeV : levels.modeV;
+  const highV = above >= side ? computeStateLevels(values, { rangeV: [levels.modeV + away, Infinity] }).modeV : levels.modeV;
+  return { ...levels, lowV, highV, midV: (lowV + highV) / 2 };
+}
+
 /** Everything measured on one channel (internal arrays included; analyze.ts reduces it to JSON). */
 export interface ChannelDetail {
   levels: StateLevels;
@@ -233,7 +261,7 @@ export interface ChannelDetail {
 /** Measure one channel sampled at `time` (seconds): levels, noise, transitions, glitches, pulses, dropouts. */
 export function measureChannel(time: ArrayLike<number>, values: ArrayLike<number>): ChannelDetail {
   const n = Math.min(time.length, values.length);
-  const levels = computeStateLevels(values);
+  const levels = multiLevelFallback(values, computeStateLevels(values));
   const swingV = levels.highV - levels.lowV;
   const noiseV = estimateNoiseV(values, levels.lowV, levels.highV);
   const flat = !(swingV >= STUCK_MIN_SWING_V);
