@@ -31,6 +31,7 @@ export default defineConfig({
           name: 'browser',
           include: ['tests/browser/**/*.test.ts'],
           environment: 'node',
+          globalSetup: ['tests/browser/global-setup.ts'],
           testTimeout: 60000,
           hookTimeout: 300000,
           fileParallelism: false,

@@ -12,6 +12,7 @@ const root = path.resolve(import.meta.dirname, '..');
 process.chdir(root);
 
 const host = process.env.HOST || 'localhost';
+// NOTE: the build bakes in the allowed host names (astro security.allowedDomains); localhost and 127.0.0.1 are always in.
 const port = process.env.PORT || '4321';
 const stampFile = path.join(root, 'dist', '.seepline-build');
 
@@ -33,7 +34,8 @@ function buildIfStale(): void {
   } catch {
     stamp = null;
   }
-  const hosts = host;
+  const builtIn = ['localhost', '127.0.0.1', '[::1]', '0.0.0.0'];
+  const hosts = [...(builtIn.includes(host) ? [] : [host]), ...(process.env.SEEPLINE_HOSTS ?? '').split(',').filter(Boolean)].join(',');
   const entry = path.join(root, 'dist', 'server', 'entry.mjs');
   if (stamp && fs.existsSync(entry) && stamp.at >= newest && stamp.hosts === hosts) return;
   console.log('Building Seepline (first start, or the sources changed)…');
@@ -66,6 +68,7 @@ async function prepareDatabase(): Promise<void> {
 
 buildIfStale();
 await prepareDatabase();
+if (process.argv.includes('--prepare-only')) process.exit(0);
 console.log(`Seepline is serving at http://${host}:${port}`);
 const child = spawn(process.execPath, [path.join(root, 'dist', 'server', 'entry.mjs')], {
   stdio: 'inherit',

@@ -241,6 +241,12 @@ interface GenEvent {
   kind: EventKind;
 }
 
+const WATER_NOTES: Partial<Record<Moisture, string>> = {
+  traces: 'Water marks inside the door; encoder board damp',
+  corrosion: 'Water found inside the door; encoder board and connector corroded',
+  standing_water: 'Standing water in the door bottom; drain holes blocked',
+};
+
 const POSITION_WEIGHT: Record<Position, number> = { FL: 4, FR: 3, RL: 1.5, RR: 1.5, SL: 2, SR: 2, TG: 1.5 };
 
 /** Parse "B1A21-29 B1A22" into defect_codes parts. */
@@ -588,7 +594,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     let notes: string | null = null;
     if (status === 'cancelled') notes = 'Duplicate report; cancelled';
     else if (status === 'awaiting_parts') notes = `Parts ordered: ${parts.map((p) => p.partNumber).join(', ')}`;
-    else if (repaired && ev.kind === 'water' && water) notes = 'Water found inside door; encoder board corroded';
+    else if (diagnosed && water) notes = WATER_NOTES[moisture] ?? null;
 
     const lastTouch = status === 'closed' ? closedAt : status === 'verified' ? verifiedAt : status === 'repaired' ? repairedAt : status === 'reported' ? ev.atMs : Math.min(nowMs, diagStartAt);
 

@@ -203,7 +203,7 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
       for (let k = 0; k < moduleFailureCount; k++) {
         const b = bins.binOfVehicle[failures.vehicleIndex[k] as number] as number;
         if (b >= 0) {
-          caseCounts[b]++;
+          caseCounts[b] = (caseCounts[b] as number) + 1;
           bandFailures++;
         }
       }

@@ -25,7 +25,7 @@ export function createRandom(seed: number): Random {
   const seeder = xoroshiro128plus(seed | 0);
   const state = new Int32Array(4);
   for (let i = 0; i < 4; i++) state[i] = seeder.next();
-  if ((state[0] | state[1] | state[2] | state[3]) === 0) state[0] = 1;
+  if (((state[0] as number) | (state[1] as number) | (state[2] as number) | (state[3] as number)) === 0) state[0] = 1;
   const nextUint32 = (): number => {
     let s0 = state[0] as number;
     let s1 = state[1] as number;
@@ -142,7 +142,8 @@ export function drawMultinomialInto(table: AliasTable, draws: number, random: Ra
     s3 = (s3 << 11) | (s3 >>> 21);
     const x = out * scale;
     const column = x | 0;
-    counts[x - column < (accept[column] as number) ? column : (alias[column] as number)]++;
+    const bin = x - column < (accept[column] as number) ? column : (alias[column] as number);
+    counts[bin] = (counts[bin] as number) + 1;
   }
   state[0] = s0;
   state[1] = s1;

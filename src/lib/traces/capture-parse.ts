@@ -372,80 +372,30 @@ export function parseCapture(bytes: Uint8Array): CaptureParseResult {
 
   // Phase 2: the data rows. Every row needs at least 5 bytes plus a line end, which bounds the row count.
   const capacity = Math.min(MAX_CAPTURE_SAMPLES, Math.floor((n - dataStart + 1) / 6) + 1);
-  let time: Float64Array = new Float64Array(capacity);
-  let a: Float64Array = new Float64Array(capacity);
-  let b: Float64Array = new Float64Array(capacity);
-  const decimalComma = delimiter !== COMMA;
-  const tab = delimiter === TAB;
-  let sawDecimalComma = false;
-  let count = 0;
-  let previousTime = -Infinity;
-  let lastDataLine = firstDataLine;
-  p = dataStart;
-  lineNo = firstDataLine - 1;
-
-  while (p < n) {
-    lineNo++;
-    const start = p;
-    p = skipBlanks(bytes, p, n, tab);
-    if (p >= n) break;
-    if (bytes[p] === LF) {
-      p++;
-      continue;
-    }
-    // time
-    const t = readNumber(bytes, p, n, decimalComma);
-    if (Number.isNaN(t)) throw rowError(bytes, start, n, lineNo, 'time (column 1) is not a number');
-    if (count === 0 && decimalComma) sawDecimalComma = containsComma(bytes, p, cursor);
-    p = skipBlanks(bytes, cursor, n, tab);
-    if (p >= n || bytes[p] !== delimiter) throw rowError(bytes, start, n, lineNo, missing(bytes, p, n, 2));
-    p = skipBlanks(bytes, p + 1, n, tab);
-    // channel A
-    const va = readNumber(bytes, p, n, decimalComma);
-    if (Number.isNaN(va)) throw rowError(bytes, start, n, lineNo, 'channel A (column 2) is not a number');
-    p = skipBlanks(bytes, cursor, n, tab);
-    if (p >= n || bytes[p] !== delimiter) throw rowError(bytes, start, n, lineNo, missing(bytes, p, n, 3));
-    p = skipBlanks(bytes, p + 1, n, tab);
-    // channel B
-    const vb = readNumber(bytes, p, n, decimalComma);
-    if (Number.isNaN(vb)) throw rowError(bytes, start, n, lineNo, 'channel B (column 3) is not a number');
-    p = skipBlanks(bytes, cursor, n, tab);
-    if (p < n) {
-      const c = bytes[p]!;
-      if (c === delimiter) p = lineEnd(bytes, p, n) + 1;
-      else if (c === LF) p++;
-      else throw rowError(bytes, start, n, lineNo, 'unexpected text after channel B');
-    }
-    if (!(t > previousTime)) {
-      throw new CaptureError(
-        `time does not increase: ${formatNumber(t)} ${timeUnit} follows ${formatNumber(previousTime)} ${timeUnit} on the previous row; every row must be later than the one before`,
-        lineNo,
-      );
-    }
-    if (count >= capacity) {
-      if (capacity >= MAX_CAPTURE_SAMPLES) {
-        throw new CaptureError(
-          `more than ${MAX_CAPTURE_SAMPLES.toLocaleString('en-US')} samples; save a shorter capture or a lower sample rate`,
-          lineNo,
-        );
-      }
-      // Unreachable by the capacity bound, kept as a guard.
-      const grow = (x: Float64Array): Float64Array => {
-        const y = new Float64Array(Math.min(MAX_CAPTURE_SAMPLES, x.length * 2));
-        y.set(x);
-        return y;
-      };
-      time = grow(time);
-      a = grow(a);
-      b = grow(b);
-    }
-    previousTime = t;
-    time[count] = t * timeScale;
-    a[count] = va * scaleA;
-    b[count] = vb * scaleB;
-    count++;
-    lastDataLine = lineNo;
+  const state: RowState = {
+    time: new Float64Array(capacity),
+    a: new Float64Array(capacity),
+    b: new Float64Array(capacity),
+    count: 0,
+    previousTime: -Infinity,
+    lineNo: firstDataLine - 1,
+    lastDataLine: firstDataLine,
+  };
+  const firstEnd = lineEnd(bytes, dataStart, n);
+  const sawDecimalComma = delimiter !== COMMA && containsComma(bytes, dataStart, firstEnd);
+  const units: RowUnits = { delimiter, timeScale, scaleA, scaleB, timeUnit };
+  // The row loop reads without bounds checks, relying on every line ending in LF: run it up to the last
+  // LF, then on a copy of any unterminated last line with an LF appended.
+  const lastLf = bytes.lastIndexOf(LF);
+  if (lastLf >= dataStart) parseRows(bytes, dataStart, lastLf + 1, units, state);
+  const tailStart = Math.max(dataStart, lastLf + 1);
+  if (tailStart < n) {
+    const tail = new Uint8Array(n - tailStart + 1);
+    tail.set(bytes.subarray(tailStart, n));
+    tail[tail.length - 1] = LF;
+    parseRows(tail, 0, tail.length, units, state);
   }
+  const { time, a, b, count, lastDataLine } = state;
 
   const fit = (x: Float64Array): Float64Array =>
     count === x.length ? x : count * 2 < x.length ? x.slice(0, count) : x.subarray(0, count);
@@ -465,6 +415,153 @@ export function parseCapture(bytes: Uint8Array): CaptureParseResult {
     lastDataLine,
   };
 }
+
+/** Where the row loop keeps its output and position (copied to locals inside the loop). */
+interface RowState {
+  time: Float64Array;
+  a: Float64Array;
+  b: Float64Array;
+  count: number;
+  previousTime: number;
+  lineNo: number;
+  lastDataLine: number;
+}
+
+/** Fixed facts about the data rows. */
+interface RowUnits {
+  delimiter: number;
+  timeScale: number;
+  scaleA: number;
+  scaleB: number;
+  timeUnit: CaptureTimeUnit;
+}
+
+/**
+ * Parse data rows in bytes [from, end), where bytes[end - 1] is LF and every line ends in LF, so the loop
+ * never reads past `end` without checking. Numbers are parsed inline (same grammar as readNumber).
+ */
+function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits, state: RowState): void {
+  const { delimiter, timeScale, scaleA, scaleB } = units;
+  const decimalComma = delimiter !== COMMA;
+  const tab = delimiter === TAB;
+  const { time, a, b } = state;
+  const capacity = time.length;
+  let count = state.count;
+  let previousTime = state.previousTime;
+  let lineNo = state.lineNo;
+  let lastDataLine = state.lastDataLine;
+  let p = from;
+  let t = 0;
+  let va = 0;
+  let vb = 0;
+  while (p < end) {
+    lineNo++;
+    const start = p;
+    let c = bytes[p]!;
+    while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+    if (c === LF) {
+      p++;
+      continue;
+    }
+    for (let field = 0; field < 3; field++) {
+      let negative = false;
+      if (c === MINUS) {
+        negative = true;
+        c = bytes[++p]!;
+      } else if (c === PLUS) {
+        c = bytes[++p]!;
+      }
+      let mantissa = 0;
+      let significant = 0;
+      let exponent = 0;
+      let digits = 0;
+      while (c >= DIGIT_0 && c <= DIGIT_9) {
+        if (significant < MAX_MANTISSA_DIGITS) {
+          mantissa = mantissa * 10 + (c - DIGIT_0);
+          if (mantissa !== 0) significant++;
+        } else {
+          exponent++;
+        }
+        digits++;
+        c = bytes[++p]!;
+      }
+      if (c === DOT || (decimalComma && c === COMMA)) {
+        c = bytes[++p]!;
+        while (c >= DIGIT_0 && c <= DIGIT_9) {
+          if (significant < MAX_MANTISSA_DIGITS) {
+            mantissa = mantissa * 10 + (c - DIGIT_0);
+            if (mantissa !== 0) significant++;
+            exponent--;
+          }
+          digits++;
+          c = bytes[++p]!;
+        }
+      }
+      if (c === LOWER_E || c === UPPER_E) {
+        c = bytes[++p]!;
+        let expNegative = false;
+        if (c === MINUS) {
+          expNegative = true;
+          c = bytes[++p]!;
+        } else if (c === PLUS) {
+          c = bytes[++p]!;
+        }
+        let expValue = 0;
+        let expDigits = 0;
+        while (c >= DIGIT_0 && c <= DIGIT_9) {
+          if (expValue < 10000) expValue = expValue * 10 + (c - DIGIT_0);
+          expDigits++;
+          c = bytes[++p]!;
+        }
+        if (expDigits === 0) digits = 0;
+        exponent += expNegative ? -expValue : expValue;
+      }
+      if (digits === 0) throw rowError(bytes, start, end, lineNo, `${FIELD_NAMES[field]} is not a number`);
+      let value: number;
+      if (exponent === 0) value = mantissa;
+      else if (exponent > 0) value = exponent <= 22 ? mantissa * POW10[exponent]! : mantissa * Math.pow(10, exponent);
+      else value = exponent >= -22 ? mantissa / POW10[-exponent]! : mantissa / Math.pow(10, -exponent);
+      if (negative) value = -value;
+      while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+      if (field === 0) t = value;
+      else if (field === 1) va = value;
+      else vb = value;
+      if (field < 2) {
+        if (c !== delimiter) throw rowError(bytes, start, end, lineNo, missing(bytes, p, end, field + 2));
+        c = bytes[++p]!;
+        while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+      }
+    }
+    if (c === LF) p++;
+    else if (c === delimiter) p = bytes.indexOf(LF, p) + 1;
+    else throw rowError(bytes, start, end, lineNo, 'unexpected text after channel B');
+    if (!(t > previousTime)) {
+      throw new CaptureError(
+        `time does not increase: ${formatNumber(t)} ${units.timeUnit} follows ${formatNumber(previousTime)} ${units.timeUnit} on the previous row; every row must be later than the one before`,
+        lineNo,
+      );
+    }
+    if (count >= capacity) {
+      // The capacity bound makes this reachable only at the sample limit.
+      throw new CaptureError(
+        `more than ${MAX_CAPTURE_SAMPLES.toLocaleString('en-US')} samples; save a shorter capture or a lower sample rate`,
+        lineNo,
+      );
+    }
+    previousTime = t;
+    time[count] = t * timeScale;
+    a[count] = va * scaleA;
+    b[count] = vb * scaleB;
+    count++;
+    lastDataLine = lineNo;
+  }
+  state.count = count;
+  state.previousTime = previousTime;
+  state.lineNo = lineNo;
+  state.lastDataLine = lastDataLine;
+}
+
+const FIELD_NAMES = ['time (column 1)', 'channel A (column 2)', 'channel B (column 3)'] as const;
 
 /** True when bytes [from, to) contain a comma. */
 function containsComma(bytes: Uint8Array, from: number, to: number): boolean {
