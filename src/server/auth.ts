@@ -6,16 +6,9 @@
 import type { APIContext, AstroGlobal } from 'astro';
 import { can, type Permission, type Role } from '@/lib/auth/permissions';
 import { forbidden, notFound, unauthenticated } from './http';
+import type { SessionUser } from '@/lib/auth/session-user';
 
-export type SessionUser = {
-  id: number;
-  email: string;
-  name: string;
-  role: Role;
-  /** null = every depot; else the ids of the depots this person may see. */
-  depotIds: number[] | null;
-  via: 'session' | 'token';
-};
+export type { SessionUser };
 
 type Ctx = Pick<APIContext, 'locals'> | Pick<AstroGlobal, 'locals'>;
 
