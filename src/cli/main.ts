@@ -167,7 +167,7 @@ main(process.argv.slice(2))
   })
   .catch(async (e: unknown) => {
     if (e instanceof UsageError) {
-      process.stderr.write(`seepline: ${e.message}\n\n${USAGE}`);
+      process.stderr.write(`seepline: ${e.message} (npm run cli -- --help lists the commands)\n`);
       process.exitCode = 2;
       return;
     }

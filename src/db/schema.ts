@@ -157,6 +157,9 @@ export const vehicles = sqliteTable(
     index('vehicles_fleet_number_idx').on(t.fleetNumber),
     index('vehicles_registration_idx').on(t.registration),
     index('vehicles_build_month_idx').on(t.buildMonth),
+    index('vehicles_build_date_idx').on(t.buildDate),
+    index('vehicles_in_service_idx').on(t.inServiceDate),
+    index('vehicles_make_model_idx').on(t.make, t.model),
   ],
 );
 

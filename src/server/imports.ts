@@ -4,9 +4,9 @@
  * applies inside the transaction and rolls it back, so its counts are exactly what a real run would do.
  * The same `apply…Row` functions serve the single-record create and update endpoints.
  */
-import { and, eq, inArray } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import { getDb, type Db } from '@/db/client';
-import { defectCodes, defects, depots, modules, vehicles } from '@/db/schema';
+import { auditLog, defectCodes, defects, depots, modules, vehicles } from '@/db/schema';
 import { CsvFormatError, readCsv } from '@/lib/imports/csv-read';
 import {
   validateRows,
@@ -18,7 +18,7 @@ import {
   type VehicleRow,
 } from '@/lib/imports/rows';
 import { parseInstant } from '@/lib/dates/dates';
-import { writeAudit, type Actor } from './audit';
+import type { Actor } from './audit';
 import { refreshRepeats } from './repeats';
 
 export type Outcome = 'inserted' | 'updated' | 'unchanged';
@@ -44,80 +44,147 @@ class DryRunRollback extends Error {}
 
 /** Values that differ between an existing row and the new values (only the keys of `next`). */
 function changedFields<T extends Record<string, unknown>>(prev: T, next: Partial<T>): Array<keyof T> {
-  return (Object.keys(next) as Array<keyof T>).filter((k) => {
-    const a = prev[k] ?? null;
-    const b = next[k] ?? null;
-    return a !== b;
-  });
+  return (Object.keys(next) as Array<keyof T>).filter((k) => (prev[k] ?? null) !== (next[k] ?? null));
 }
 
-function audit(tx: Tx, actor: Actor, entity: string, id: string, outcome: Outcome, prev: Record<string, unknown> | null, next: Record<string, unknown>, fields: string[], action = 'import'): void {
-  if (outcome === 'unchanged') return;
-  if (outcome === 'inserted') {
-    writeAudit(tx, actor, { entity, entityId: id, action: action === 'import' ? 'import:create' : 'create' });
-    return;
+type AuditRow = typeof auditLog.$inferInsert;
+
+/** Collects audit rows during a batch and writes them in chunks at the end (one insert per 500 rows). */
+class AuditBuffer {
+  readonly rows: AuditRow[] = [];
+  constructor(
+    private readonly actor: Actor,
+    private readonly viaImport: boolean,
+    private readonly at = Date.now(),
+  ) {}
+  private base(entity: string, entityId: string) {
+    const a = this.actor;
+    return { at: this.at, userId: 'userId' in a ? a.userId : null, actor: 'system' in a ? a.system : null, entity, entityId };
   }
-  for (const f of fields) {
-    writeAudit(tx, actor, {
-      entity,
-      entityId: id,
-      action: action === 'import' ? 'import:update' : 'update',
-      field: f,
-      oldValue: prev?.[f] == null ? null : String(prev[f]),
-      newValue: next[f] == null ? null : String(next[f]),
+  created(entity: string, entityId: string): void {
+    this.rows.push({ ...this.base(entity, entityId), action: this.viaImport ? 'import:create' : 'create' });
+  }
+  updated(entity: string, entityId: string, prev: Record<string, unknown>, next: Record<string, unknown>, fields: string[]): void {
+    for (const f of fields) {
+      this.rows.push({
+        ...this.base(entity, entityId),
+        action: this.viaImport ? 'import:update' : 'update',
+        field: f,
+        oldValue: prev[f] == null ? null : String(prev[f]),
+        newValue: next[f] == null ? null : String(next[f]),
+      });
+    }
+  }
+  flush(tx: Tx): void {
+    for (const part of chunked(this.rows, 500)) tx.insert(auditLog).values(part).run();
+    this.rows.length = 0;
+  }
+}
+
+type Keyed<V> = { key: string; values: V };
+
+/**
+ * Upsert rows of a table with a unique text key: existing rows are loaded in chunks, unchanged ones skipped,
+ * changed ones updated one by one, new ones inserted in chunks. Returns each row's outcome and id, in order.
+ */
+function upsertByKey<V extends Record<string, unknown>>(
+  tx: Tx,
+  table: typeof depots | typeof modules | typeof vehicles,
+  keyColumn: 'code' | 'vin',
+  entity: string,
+  rows: Keyed<V>[],
+  audit: AuditBuffer,
+  bumpVersion: boolean,
+): Array<{ outcome: Outcome; id: number }> {
+  const col = (table as typeof vehicles & typeof depots)[keyColumn as 'vin'];
+  const existing = new Map<string, Record<string, unknown> & { id: number }>();
+  for (const part of chunked(rows.map((r) => r.key), 500)) {
+    for (const row of tx.select().from(table).where(inArray(col, part)).all() as Array<Record<string, unknown> & { id: number }>) {
+      existing.set(String(row[keyColumn]), row);
+    }
+  }
+  const out: Array<{ outcome: Outcome; id: number }> = new Array(rows.length);
+  const inserts: Array<{ i: number; r: Keyed<V> }> = [];
+  rows.forEach((r, i) => {
+    const prev = existing.get(r.key);
+    if (!prev) {
+      inserts.push({ i, r });
+      return;
+    }
+    const fields = changedFields(prev, r.values) as string[];
+    if (fields.length === 0) {
+      out[i] = { outcome: 'unchanged', id: prev.id };
+      return;
+    }
+    const set: Record<string, unknown> = { ...r.values, updatedAt: Date.now() };
+    if (bumpVersion) set.version = Number(prev.version ?? 1) + 1;
+    tx.update(table).set(set).where(eq((table as typeof vehicles).id, prev.id)).run();
+    audit.updated(entity, entity === 'vehicle' ? r.key : String(prev.id), prev, r.values, fields);
+    out[i] = { outcome: 'updated', id: prev.id };
+  });
+  for (const part of chunked(inserts, 200)) {
+    const ids = tx
+      .insert(table)
+      .values(part.map((p) => p.r.values) as never)
+      .returning({ id: (table as typeof vehicles).id })
+      .all();
+    part.forEach((p, j) => {
+      const id = ids[j]!.id;
+      out[p.i] = { outcome: 'inserted', id };
+      audit.created(entity, entity === 'vehicle' ? p.r.key : String(id));
     });
   }
+  return out;
+}
+
+/** Apply depot rows (by code). */
+export function applyDepotRows(tx: Tx, rows: DepotRow[], audit: AuditBuffer) {
+  return upsertByKey(tx, depots, 'code', 'depot', rows.map((r) => ({ key: r.code, values: { ...r } })), audit, false);
+}
+
+/** Apply module rows (by code). */
+export function applyModuleRows(tx: Tx, rows: ModuleRow[], audit: AuditBuffer) {
+  return upsertByKey(tx, modules, 'code', 'module', rows.map((r) => ({ key: r.code, values: { ...r } })), audit, false);
+}
+
+/** Apply vehicle rows (by VIN) with their resolved depot ids. */
+export function applyVehicleRows(tx: Tx, rows: Array<{ row: VehicleRow; depotId: number }>, audit: AuditBuffer) {
+  return upsertByKey(
+    tx,
+    vehicles,
+    'vin',
+    'vehicle',
+    rows.map(({ row, depotId }) => {
+      const { depotCode: _code, ...rest } = row;
+      return { key: row.vin, values: { ...rest, depotId } };
+    }),
+    audit,
+    true,
+  );
 }
 
 /** Insert or update one depot by code. */
 export function applyDepotRow(tx: Tx, row: DepotRow, actor: Actor, action = 'import'): { outcome: Outcome; id: number } {
-  const values = { ...row };
-  const prev = tx.select().from(depots).where(eq(depots.code, row.code)).get();
-  if (!prev) {
-    const r = tx.insert(depots).values(values).returning({ id: depots.id }).get();
-    audit(tx, actor, 'depot', String(r.id), 'inserted', null, values, [], action);
-    return { outcome: 'inserted', id: r.id };
-  }
-  const fields = changedFields(prev, values) as string[];
-  if (fields.length === 0) return { outcome: 'unchanged', id: prev.id };
-  tx.update(depots).set({ ...values, updatedAt: Date.now() }).where(eq(depots.id, prev.id)).run();
-  audit(tx, actor, 'depot', String(prev.id), 'updated', prev, values, fields, action);
-  return { outcome: 'updated', id: prev.id };
+  const audit = new AuditBuffer(actor, action === 'import');
+  const r = applyDepotRows(tx, [row], audit)[0]!;
+  audit.flush(tx);
+  return r;
 }
 
 /** Insert or update one module type by code. */
 export function applyModuleRow(tx: Tx, row: ModuleRow, actor: Actor, action = 'import'): { outcome: Outcome; id: number } {
-  const prev = tx.select().from(modules).where(eq(modules.code, row.code)).get();
-  if (!prev) {
-    const r = tx.insert(modules).values(row).returning({ id: modules.id }).get();
-    audit(tx, actor, 'module', String(r.id), 'inserted', null, row, [], action);
-    return { outcome: 'inserted', id: r.id };
-  }
-  const fields = changedFields(prev, row) as string[];
-  if (fields.length === 0) return { outcome: 'unchanged', id: prev.id };
-  tx.update(modules).set({ ...row, updatedAt: Date.now() }).where(eq(modules.id, prev.id)).run();
-  audit(tx, actor, 'module', String(prev.id), 'updated', prev, row, fields, action);
-  return { outcome: 'updated', id: prev.id };
+  const audit = new AuditBuffer(actor, action === 'import');
+  const r = applyModuleRows(tx, [row], audit)[0]!;
+  audit.flush(tx);
+  return r;
 }
 
 /** Insert or update one vehicle by VIN; `depotId` is the resolved depot_code. */
 export function applyVehicleRow(tx: Tx, row: VehicleRow, depotId: number, actor: Actor, action = 'import'): { outcome: Outcome; id: number } {
-  const { depotCode: _code, ...rest } = row;
-  const values = { ...rest, depotId };
-  const prev = tx.select().from(vehicles).where(eq(vehicles.vin, row.vin)).get();
-  if (!prev) {
-    const r = tx.insert(vehicles).values(values).returning({ id: vehicles.id }).get();
-    audit(tx, actor, 'vehicle', row.vin, 'inserted', null, values, [], action);
-    return { outcome: 'inserted', id: r.id };
-  }
-  const fields = changedFields(prev, values) as string[];
-  if (fields.length === 0) return { outcome: 'unchanged', id: prev.id };
-  tx.update(vehicles)
-    .set({ ...values, version: prev.version + 1, updatedAt: Date.now() })
-    .where(eq(vehicles.id, prev.id))
-    .run();
-  audit(tx, actor, 'vehicle', row.vin, 'updated', prev, values, fields, action);
-  return { outcome: 'updated', id: prev.id };
+  const audit = new AuditBuffer(actor, action === 'import');
+  const r = applyVehicleRows(tx, [{ row, depotId }], audit)[0]!;
+  audit.flush(tx);
+  return r;
 }
 
 export type DefectRefs = { vehicleId: number; depotId: number; timezone: string | null; moduleId: number };
@@ -158,50 +225,82 @@ export function defectRef(id: number): string {
   return `DF-${String(id).padStart(6, '0')}`;
 }
 
-/** Insert or update one defect: by ref when given, else by (vehicle, reported_at, position, module). */
-export function applyDefectRow(tx: Tx, row: DefectRow, refs: DefectRefs, actor: Actor, action = 'import'): { outcome: Outcome; id: number; vehicleId: number } {
-  const values = defectValues(row, refs);
-  const prev = row.ref
-    ? tx.select().from(defects).where(eq(defects.ref, row.ref)).get()
-    : tx
-        .select()
-        .from(defects)
-        .where(
-          and(
-            eq(defects.vehicleId, refs.vehicleId),
-            eq(defects.reportedAt, values.reportedAt),
-            eq(defects.position, row.position),
-            eq(defects.moduleId, refs.moduleId),
-          ),
-        )
-        .get();
-  if (!prev) {
-    const status = values.closedAt !== null ? 'closed' : 'reported';
-    const r = tx
-      .insert(defects)
-      .values({ ...values, depotId: refs.depotId, status, ref: row.ref ?? `TMP-${crypto.randomUUID()}` })
-      .returning({ id: defects.id })
-      .get();
-    const ref = row.ref ?? defectRef(r.id);
-    if (!row.ref) tx.update(defects).set({ ref }).where(eq(defects.id, r.id)).run();
-    writeDefectCodes(tx, r.id, row.dtcs);
-    audit(tx, actor, 'defect', String(r.id), 'inserted', null, values, [], action);
-    return { outcome: 'inserted', id: r.id, vehicleId: refs.vehicleId };
+const naturalKey = (vehicleId: number, reportedAt: number, position: string, moduleId: number) => `${vehicleId}|${reportedAt}|${position}|${moduleId}`;
+
+/** Apply defect rows: by ref when given, else by (vehicle, reported_at, position, module). */
+export function applyDefectRows(tx: Tx, rows: Array<{ row: DefectRow; refs: DefectRefs }>, audit: AuditBuffer): Array<{ outcome: Outcome; id: number; vehicleId: number }> {
+  type Prev = typeof defects.$inferSelect;
+  const byRef = new Map<string, Prev>();
+  const byKey = new Map<string, Prev>();
+  for (const part of chunked([...new Set(rows.map((r) => r.row.ref).filter((x): x is string => !!x))], 500)) {
+    for (const d of tx.select().from(defects).where(inArray(defects.ref, part)).all()) byRef.set(d.ref, d);
   }
-  // reportedAtText/closedAtText only record how a time was written; a change there alone is not a change.
-  const { reportedAtText: _a, closedAtText: _b, ...compared } = values;
-  const fields = changedFields(prev, compared) as string[];
-  if (fields.length === 0) return { outcome: 'unchanged', id: prev.id, vehicleId: prev.vehicleId };
-  let status = prev.status;
-  if (prev.closedAt === null && values.closedAt !== null && status !== 'cancelled') status = 'closed';
-  if (prev.closedAt !== null && values.closedAt === null && status === 'closed') status = 'reported';
-  tx.update(defects)
-    .set({ ...values, status, version: prev.version + 1, updatedAt: Date.now() })
-    .where(eq(defects.id, prev.id))
-    .run();
-  if (fields.includes('dtcs')) writeDefectCodes(tx, prev.id, row.dtcs);
-  audit(tx, actor, 'defect', String(prev.id), 'updated', prev, compared, fields, action);
-  return { outcome: 'updated', id: prev.id, vehicleId: prev.vehicleId };
+  for (const part of chunked([...new Set(rows.filter((r) => !r.row.ref).map((r) => r.refs.vehicleId))], 500)) {
+    for (const d of tx.select().from(defects).where(inArray(defects.vehicleId, part)).all()) {
+      byKey.set(naturalKey(d.vehicleId, d.reportedAt, d.position, d.moduleId), d);
+    }
+  }
+  const out: Array<{ outcome: Outcome; id: number; vehicleId: number }> = new Array(rows.length);
+  const inserts: Array<{ i: number; values: ReturnType<typeof defectValues>; row: DefectRow; refs: DefectRefs }> = [];
+  rows.forEach(({ row, refs }, i) => {
+    const values = defectValues(row, refs);
+    const prev = row.ref ? byRef.get(row.ref) : byKey.get(naturalKey(refs.vehicleId, values.reportedAt, row.position, refs.moduleId));
+    if (!prev) {
+      inserts.push({ i, values, row, refs });
+      return;
+    }
+    // reportedAtText/closedAtText only record how a time was written; a change there alone is not a change.
+    const { reportedAtText: _a, closedAtText: _b, ...compared } = values;
+    const fields = changedFields(prev, compared) as string[];
+    if (fields.length === 0) {
+      out[i] = { outcome: 'unchanged', id: prev.id, vehicleId: prev.vehicleId };
+      return;
+    }
+    let status = prev.status;
+    if (prev.closedAt === null && values.closedAt !== null && status !== 'cancelled') status = 'closed';
+    if (prev.closedAt !== null && values.closedAt === null && status === 'closed') status = 'reported';
+    tx.update(defects)
+      .set({ ...values, status, version: prev.version + 1, updatedAt: Date.now() })
+      .where(eq(defects.id, prev.id))
+      .run();
+    if (fields.includes('dtcs')) writeDefectCodes(tx, prev.id, row.dtcs);
+    audit.updated('defect', String(prev.id), prev, compared, fields);
+    out[i] = { outcome: 'updated', id: prev.id, vehicleId: prev.vehicleId };
+  });
+  for (const part of chunked(inserts, 200)) {
+    const ids = tx
+      .insert(defects)
+      .values(
+        part.map((p) => ({
+          ...p.values,
+          depotId: p.refs.depotId,
+          status: p.values.closedAt !== null ? ('closed' as const) : ('reported' as const),
+          ref: p.row.ref ?? `TMP-${crypto.randomUUID()}`,
+        })),
+      )
+      .returning({ id: defects.id })
+      .all();
+    const codes: Array<typeof defectCodes.$inferInsert> = [];
+    part.forEach((p, j) => {
+      const id = ids[j]!.id;
+      out[p.i] = { outcome: 'inserted', id, vehicleId: p.refs.vehicleId };
+      p.row.dtcs.forEach((d, k) => codes.push({ defectId: id, seq: k + 1, code: d.code, failureType: d.failureType }));
+      audit.created('defect', String(id));
+    });
+    for (const c of chunked(codes, 500)) tx.insert(defectCodes).values(c).run();
+  }
+  if (inserts.some((p) => !p.row.ref)) {
+    tx.run(sql`update defects set ref = 'DF-' || printf('%06d', id) where ref like 'TMP-%'`);
+  }
+  return out;
+}
+
+/** Insert or update one defect. */
+export function applyDefectRow(tx: Tx, row: DefectRow, refs: DefectRefs, actor: Actor, action = 'import'): { outcome: Outcome; id: number; vehicleId: number } {
+  const audit = new AuditBuffer(actor, action === 'import');
+  const r = applyDefectRows(tx, [{ row, refs }], audit)[0]!;
+  audit.flush(tx);
+  return r;
 }
 
 function chunked<T>(items: T[], size = 500): T[][] {
@@ -263,25 +362,30 @@ export function runImport(kind: ImportKind, text: string, opts: { dryRun: boolea
   }
 
   const apply = (tx: Tx) => {
-    const touchedVehicles = new Set<number>();
-    for (const r of v.rows) {
-      let out: { outcome: Outcome };
-      if (kind === 'depots') out = applyDepotRow(tx, r.value as DepotRow, opts.actor);
-      else if (kind === 'modules') out = applyModuleRow(tx, r.value as ModuleRow, opts.actor);
-      else if (kind === 'vehicles') {
-        const row = r.value as VehicleRow;
-        out = applyVehicleRow(tx, row, depotByCode.get(row.depotCode)!.id, opts.actor);
-      } else {
+    const audit = new AuditBuffer(opts.actor, true);
+    let outcomes: Array<{ outcome: Outcome }>;
+    if (kind === 'depots') outcomes = applyDepotRows(tx, v.rows.map((r) => r.value as DepotRow), audit);
+    else if (kind === 'modules') outcomes = applyModuleRows(tx, v.rows.map((r) => r.value as ModuleRow), audit);
+    else if (kind === 'vehicles') {
+      outcomes = applyVehicleRows(
+        tx,
+        v.rows.map((r) => ({ row: r.value as VehicleRow, depotId: depotByCode.get((r.value as VehicleRow).depotCode)!.id })),
+        audit,
+      );
+    } else {
+      const list = v.rows.map((r) => {
         const row = r.value as DefectRow;
         const veh = vehicleByVin.get(row.vin)!;
         const dep = depotByCode.get(`#${veh.depotId}`)!;
-        const o = applyDefectRow(tx, row, { vehicleId: veh.id, depotId: veh.depotId, timezone: dep.timezone, moduleId: moduleByCode.get(row.moduleCode)! }, opts.actor);
-        if (o.outcome !== 'unchanged') touchedVehicles.add(o.vehicleId);
-        out = o;
-      }
-      result[out.outcome]++;
+        return { row, refs: { vehicleId: veh.id, depotId: veh.depotId, timezone: dep.timezone, moduleId: moduleByCode.get(row.moduleCode)! } };
+      });
+      const out = applyDefectRows(tx, list, audit);
+      const touched = [...new Set(out.filter((o) => o.outcome !== 'unchanged').map((o) => o.vehicleId))];
+      if (touched.length) refreshRepeats(tx, touched);
+      outcomes = out;
     }
-    if (touchedVehicles.size) refreshRepeats(tx, [...touchedVehicles]);
+    for (const o of outcomes) result[o.outcome]++;
+    audit.flush(tx);
     if (opts.dryRun) throw new DryRunRollback();
   };
   try {
