@@ -293,3 +293,38 @@ export const settings = sqliteTable('settings', {
   key: text('key').primaryKey(),
   value: text('value').notNull(),
 });
+
+export const PATTERN_STATUSES = ['new', 'acknowledged', 'campaign_planned', 'resolved', 'dismissed'] as const;
+
+/**
+ * A pattern the recurrence engine found, kept with a stable identity (module type + exposure band) across
+ * re-runs so that people can act on it; the latest figures are stored as a JSON snapshot.
+ */
+export const patternRecords = sqliteTable(
+  'pattern_records',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    /** Stable identity: `${moduleCode}:${band}`. */
+    key: text('key').notNull().unique(),
+    moduleCode: text('module_code').notNull(),
+    exposureBand: text('exposure_band').notNull(),
+    /** Engine cohort id of the latest run (includes the build range). */
+    cohortId: text('cohort_id').notNull(),
+    buildFrom: text('build_from').notNull(),
+    buildTo: text('build_to').notNull(),
+    failures: integer('failures').notNull(),
+    rateRatio: real('rate_ratio'),
+    qValue: real('q_value'),
+    waterIngress: integer('water_ingress', { mode: 'boolean' }).notNull().default(false),
+    status: text('status', { enum: PATTERN_STATUSES }).notNull().default('new'),
+    statusReason: text('status_reason'),
+    statusById: integer('status_by_id').references(() => users.id, { onDelete: 'set null' }),
+    statusAt: integer('status_at'),
+    /** What changed since a person last acted on it (range widened, new failures), or null. */
+    changeNote: text('change_note'),
+    snapshot: text('snapshot'),
+    firstSeenAt: integer('first_seen_at').notNull(),
+    lastSeenAt: integer('last_seen_at').notNull(),
+  },
+  (t) => [index('pattern_records_status_idx').on(t.status)],
+);
