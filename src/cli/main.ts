@@ -21,6 +21,7 @@ Commands:
   token-create --email E [--label L]        print a new API token for that person (last line of stdout)
   import <depots|modules|vehicles|defects> FILE [--dry-run] [--json]
                                             import a CSV file (all rows or none)
+  patterns [--as-of YYYY-MM-DD] [--json]     print the patterns report (same JSON as GET /api/patterns)
   trace FILE [--pulses-per-rev N] [--supply-v V] --json
                                             analyse a hall-sensor capture without storing it
   backup FILE                               write a consistent copy of the live database
@@ -141,6 +142,23 @@ async function main(argv: string[]): Promise<number> {
         if (result.errors.length) {
           process.stderr.write(`Import refused: ${result.errors.length} row error(s); nothing was written.\n`);
           return 1;
+        }
+        return 0;
+      }
+      case 'patterns': {
+        const { values } = parse(rest, { 'as-of': { type: 'string' }, json: { type: 'boolean' } }, 0);
+        runMigrations(getDb());
+        const { getPatternsReport, parseAsOfParam, patternsResponse } = await import('../server/patterns');
+        const asOf = parseAsOfParam(typeof values['as-of'] === 'string' ? values['as-of'] : undefined);
+        const everyone = { id: 0, email: 'cli', name: 'CLI', role: 'admin' as const, depotIds: null, via: 'token' as const };
+        const report = patternsResponse(getPatternsReport(everyone, asOf));
+        if (values.json) console.log(JSON.stringify(report, null, 2));
+        else {
+          const flagged = report.cohorts.filter((c) => c.significant);
+          console.log(`Patterns as of ${asOf}: ${report.cohorts.length} cohorts tested, ${flagged.length} significant.`);
+          for (const c of flagged) {
+            console.log(`  ${c.moduleCode} ${c.buildFrom}..${c.buildTo} ${c.exposureBand}: ${c.failures} failures vs ${c.expected.toFixed(1)} expected, rate ratio ${c.rateRatio?.toFixed(2) ?? '∞'}, q ${c.qValue.toExponential(2)}${c.waterIngress ? ', water ingress' : ''}`);
+          }
         }
         return 0;
       }

@@ -1,0 +1,12 @@
+import { handle, json, methodNotAllowed } from '@/server/http';
+import { requirePermission } from '@/server/auth';
+import { getPatternsReport, parseAsOfParam, patternsResponse } from '@/server/patterns';
+
+/** The patterns report over the caller's depots (CONTRACT.md "Patterns"). */
+export const GET = handle((ctx) => {
+  const user = requirePermission(ctx, 'pattern:read');
+  const asOf = parseAsOfParam(ctx.url.searchParams.get('asOf'));
+  return json(patternsResponse(getPatternsReport(user, asOf)));
+});
+
+export const ALL = methodNotAllowed('GET');

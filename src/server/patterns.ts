@@ -1,0 +1,122 @@
+/**
+ * Patterns: loads the fleet the caller may see into the recurrence engine's plain input, runs the report or
+ * the mean cumulative function, and caches results until the underlying data changes.
+ */
+import { and, eq, ne, sql } from 'drizzle-orm';
+import { getDb } from '@/db/client';
+import { defects, depots, modules, vehicles } from '@/db/schema';
+import { computePatternsReport } from '@/lib/patterns/report';
+import { computeMcfSeries } from '@/lib/patterns/mcf-fleet';
+import type { PatternsInput, PatternsReport, ExposureBand } from '@/lib/patterns/types';
+import { parseIsoDate } from '@/lib/dates/dates';
+import type { SessionUser } from './auth';
+import { depotScope } from './list-helpers';
+import { invalid, notFound } from './http';
+
+/** Replicates and seed of the report's Monte Carlo (fixed so that a report is reproducible). */
+export const REPORT_REPLICATES = 999;
+export const REPORT_SEED = 20261202;
+
+type Cached = { version: string; value: unknown };
+const cache = new Map<string, Cached>();
+const CACHE_MAX = 32;
+
+/** A fingerprint of the data the engine reads; changes whenever a vehicle, defect, depot or module changes. */
+function dataVersion(): string {
+  const db = getDb();
+  const row = db.get<{ v: string }>(sql`select
+    (select count(*) || ':' || coalesce(max(updated_at), 0) from defects) || '|' ||
+    (select count(*) || ':' || coalesce(max(updated_at), 0) from vehicles) || '|' ||
+    (select count(*) || ':' || coalesce(max(updated_at), 0) from depots) || '|' ||
+    (select count(*) || ':' || coalesce(max(updated_at), 0) from modules) as v`);
+  return row.v;
+}
+
+function cached<T>(key: string, compute: () => T): T {
+  const version = dataVersion();
+  const hit = cache.get(key);
+  if (hit && hit.version === version) return hit.value as T;
+  const value = compute();
+  cache.set(key, { version, value });
+  while (cache.size > CACHE_MAX) cache.delete(cache.keys().next().value as string);
+  return value;
+}
+
+/** Today's date (UTC) as `YYYY-MM-DD`. */
+export function todayIso(now = Date.now()): string {
+  return new Date(now).toISOString().slice(0, 10);
+}
+
+/** Validate an `asOf` query value (default today). */
+export function parseAsOfParam(v: string | null | undefined): string {
+  if (v === null || v === undefined || v === '') return todayIso();
+  const d = parseIsoDate(v);
+  if (!d) throw invalid('asOf must be a date YYYY-MM-DD.', [{ path: 'asOf', message: `Not a date: ${v}` }]);
+  return d;
+}
+
+/** The engine's input for the caller's depots (cancelled defects left out). */
+export function loadPatternsInput(user: SessionUser): PatternsInput {
+  const db = getDb();
+  const vScope = depotScope(user, vehicles.depotId);
+  const dScope = depotScope(user, depots.id);
+  const vs = db
+    .select({
+      id: vehicles.id,
+      vin: vehicles.vin,
+      buildMonth: vehicles.buildMonth,
+      inServiceDate: vehicles.inServiceDate,
+      retiredDate: vehicles.retiredDate,
+      depotId: vehicles.depotId,
+      parking: vehicles.parking,
+      washesPerMonth: vehicles.washesPerMonth,
+    })
+    .from(vehicles)
+    .where(vScope)
+    .all();
+  const ds = db
+    .select({ id: depots.id, code: depots.code, coastal: depots.coastal, rainDaysPerYear: depots.rainDaysPerYear, meanRhPct: depots.meanRhPct, washBay: depots.washBay })
+    .from(depots)
+    .where(dScope)
+    .all();
+  const ms = db.select({ id: modules.id, code: modules.code, function: modules.function }).from(modules).all();
+  const fs = db
+    .select({ id: defects.id, vehicleId: defects.vehicleId, moduleId: defects.moduleId, reportedAt: defects.reportedAt, moisture: defects.moisture, rootCause: defects.rootCause })
+    .from(defects)
+    .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
+    .where(and(vScope, ne(defects.status, 'cancelled')))
+    .all()
+    .map((f) => ({ ...f, reportedAt: new Date(f.reportedAt).toISOString(), diagnosed: f.moisture !== null || f.rootCause !== null }));
+  return { vehicles: vs, depots: ds, modules: ms, failures: fs };
+}
+
+function scopeKey(user: SessionUser): string {
+  return user.depotIds === null ? 'all' : user.depotIds.slice().sort((a, b) => a - b).join(',');
+}
+
+/** The full engine report (with every extra field) for the caller's depots. */
+export function getPatternsReport(user: SessionUser, asOf: string): PatternsReport {
+  return cached(`report|${scopeKey(user)}|${asOf}`, () =>
+    computePatternsReport(loadPatternsInput(user), { asOf, replicates: REPORT_REPLICATES, seed: REPORT_SEED }),
+  );
+}
+
+/** The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras). */
+export function patternsResponse(report: PatternsReport) {
+  return {
+    ...report,
+    asOf: report.asOf,
+    cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => c),
+  };
+}
+
+/** Mean cumulative function series for a module type. */
+export function getMcf(user: SessionUser, moduleCode: string, asOf: string, byBand: boolean) {
+  const code = moduleCode.trim().toUpperCase();
+  if (!getDb().select({ id: modules.id }).from(modules).where(eq(modules.code, code)).get()) throw notFound('Module type');
+  return cached(`mcf|${scopeKey(user)}|${asOf}|${code}|${byBand}`, () =>
+    computeMcfSeries(loadPatternsInput(user), { moduleCode: code, asOf, byExposureBand: byBand }),
+  );
+}
+
+export type { ExposureBand };
