@@ -79,8 +79,8 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
   const rows = db
     .select({
       d: depots,
-      vehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = ${depots.id} and v.retired_date is null)`,
-      openDefects: sql<number>`(select count(*) from defects x where x.depot_id = ${depots.id} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      vehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = "depots"."id" and v.retired_date is null)`,
+      openDefects: sql<number>`(select count(*) from defects x where x.depot_id = "depots"."id" and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
     })
     .from(depots)
     .where(where)
@@ -169,8 +169,8 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
   const rows = db
     .select({
       m: modules,
-      defects: sql<number>`(select count(*) from defects x where x.module_id = ${modules.id} and ${scope} ${depotFilter})`,
-      openDefects: sql<number>`(select count(*) from defects x where x.module_id = ${modules.id} and ${scope} ${depotFilter} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      defects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter})`,
+      openDefects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
     })
     .from(modules)
     .where(where)

@@ -148,3 +148,15 @@ describe('cross-site protection for cookie sessions', () => {
     expect(ok.status).toBe(201);
   });
 });
+
+describe('counts in lists', () => {
+  it('depot and module lists count their own vehicles and defects', async () => {
+    const d = await body(await call(depots, 'GET', '/api/depots', { token: admin }));
+    const nth = d.items.find((x: { code: string }) => x.code === 'NTH');
+    const sth = d.items.find((x: { code: string }) => x.code === 'STH');
+    expect([nth.vehicles, sth.vehicles, nth.openDefects, sth.openDefects]).toEqual([1, 1, 1, 0]);
+    const m = await body(await call(modulesRoute, 'GET', '/api/modules', { token: admin }));
+    expect(m.items.find((x: { code: string }) => x.code === 'WLR-2').defects).toBe(1);
+    expect(m.items.find((x: { code: string }) => x.code === 'LCK-1').defects).toBe(0);
+  });
+});
