@@ -66,6 +66,18 @@ export function computeExposureScore(depot: ExposureDepot, vehicle: ExposureVehi
   return { index, band: bandForExposureIndex(index), points };
 }
 
+/** The index alone (same points as computeExposureScore, without allocating). */
+export function computeExposureIndex(depot: ExposureDepot, parking: Parking, washesPerMonth: number): number {
+  const t = EXPOSURE_THRESHOLDS;
+  return (
+    (depot.coastal ? t.coastalPoints : 0) +
+    stepPoints(depot.rainDaysPerYear, t.rainDaysPerYear) +
+    stepPoints(depot.meanRhPct, t.meanRhPct) +
+    (t.parkingPoints[parking] ?? 0) +
+    stepPoints(washesPerMonth * (depot.washBay ? t.washBayFactor : 1), t.effectiveWashesPerMonth)
+  );
+}
+
 /** Observed days and vehicle-years of one vehicle up to asOf. */
 export interface VehicleObservation {
   startDay: number;

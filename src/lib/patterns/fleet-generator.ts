@@ -160,7 +160,7 @@ export const DEFAULT_DEPOTS: readonly DepotSpec[] = Object.freeze([
 
 /** Default module catalogue (body electrics), background rates summing to about 0.19 failures per vehicle-year. */
 export const DEFAULT_MODULES: readonly ModuleSpec[] = Object.freeze([
-  { code: 'WLR-2', name: 'Front window lifter motor with hall encoder', function: 'window_lifter', failuresPerVehicleYear: 0.05, moistureShare: 0.2, positions: ['FL', 'FR'] },
+  { code: 'WLR-2', name: 'Front window lifter motor with hall encoder', function: 'window_lifter', failuresPerVehicleYear: 0.055, moistureShare: 0.2, positions: ['FL', 'FR'] },
   { code: 'WLR-4', name: 'Rear window lifter motor with hall encoder', function: 'window_lifter', failuresPerVehicleYear: 0.025, moistureShare: 0.2, positions: ['RL', 'RR'] },
   { code: 'DLA-1', name: 'Door lock actuator', function: 'lock_actuator', failuresPerVehicleYear: 0.035, moistureShare: 0.15, positions: ['FL', 'FR', 'RL', 'RR', 'SL', 'SR', 'TG'] },
   { code: 'DCM-3', name: 'Door control module', function: 'door_control', failuresPerVehicleYear: 0.02, moistureShare: 0.12, positions: ['FL', 'FR'] },

@@ -3,9 +3,9 @@
  * exposure band and build month in typed arrays, and the failures that fall inside their vehicle's window,
  * grouped by module type. Edit when a new per-vehicle or per-failure fact is needed by an engine.
  */
-import { toDayNumber, toMonthIndex } from './calendar';
-import { computeExposureScore, computeVehicleObservation } from './exposure';
-import { EXPOSURE_BANDS, PatternsInputError, type ExposureBand, type PatternsInput } from './types';
+import { DAYS_PER_YEAR, toDayNumber, toMonthIndex } from './calendar';
+import { EXPOSURE_THRESHOLDS, computeExposureIndex } from './exposure';
+import { EXPOSURE_BANDS, PatternsInputError, type ExposureBand, type PatternsInput, type PatternsVehicle } from './types';
 
 /** Moisture findings that count as water. */
 const WET_FINDINGS = new Set(['traces', 'corrosion', 'standing_water']);
@@ -64,23 +64,26 @@ export function indexFleet(input: PatternsInput, asOfDay: number): FleetIndex {
   const startDay = new Float64Array(n);
   const endDay = new Float64Array(n);
   const vehicleById = new Map<number, number>();
-  const bandOf: Record<ExposureBand, number> = { low: 0, medium: 1, high: 2 };
-  input.vehicles.forEach((v, i) => {
+  const vehicles = input.vehicles;
+  for (let i = 0; i < n; i++) {
+    const v = vehicles[i] as PatternsVehicle;
     if (vehicleById.has(v.id)) throw new PatternsInputError(`duplicate vehicle id ${v.id}`);
     vehicleById.set(v.id, i);
     const depot = depots.get(v.depotId);
     if (!depot) throw new PatternsInputError(`vehicle ${v.id} has unknown depot ${v.depotId}`);
-    const obs = computeVehicleObservation(v, asOfDay);
-    const score = computeExposureScore(depot, v);
+    const start = toDayNumber(v.inServiceDate);
+    const end = Math.min(v.retiredDate ? toDayNumber(v.retiredDate) : Number.POSITIVE_INFINITY, asOfDay);
+    const days = Math.max(0, end - start);
+    const index = computeExposureIndex(depot, v.parking, v.washesPerMonth);
     vehicleIds[i] = v.id;
-    observedDays[i] = obs.observedDays;
-    vehicleYears[i] = obs.vehicleYears;
-    startDay[i] = obs.startDay;
-    endDay[i] = obs.endDay;
+    observedDays[i] = days;
+    vehicleYears[i] = days / DAYS_PER_YEAR;
+    startDay[i] = start;
+    endDay[i] = end;
     monthIndex[i] = toMonthIndex(v.buildMonth);
-    bandIndex[i] = bandOf[score.band];
-    exposureIndex[i] = score.index;
-  });
+    bandIndex[i] = index >= EXPOSURE_THRESHOLDS.bandMinIndex.high ? 2 : index >= EXPOSURE_THRESHOLDS.bandMinIndex.medium ? 1 : 0;
+    exposureIndex[i] = index;
+  }
   const moduleById = new Map<number, number>();
   input.modules.forEach((m, i) => {
     if (moduleById.has(m.id)) throw new PatternsInputError(`duplicate module id ${m.id}`);
@@ -94,12 +97,13 @@ export function indexFleet(input: PatternsInput, asOfDay: number): FleetIndex {
   for (const f of input.failures) {
     const vi = vehicleById.get(f.vehicleId);
     const mi = moduleById.get(f.moduleId);
-    if (vi === undefined || mi === undefined || !((observedDays[vi] as number) > 0)) {
+    if (vi === undefined || mi === undefined) {
       ignored++;
       continue;
     }
     const day = toDayNumber(f.reportedAt);
     const start = startDay[vi] as number;
+    // Inside [in service, end]; a vehicle entering service on asOf still has its day 0.
     if (day < start || day > (endDay[vi] as number)) {
       ignored++;
       continue;

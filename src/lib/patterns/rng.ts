@@ -59,8 +59,9 @@ export function createRandom(seed: number): Random {
 
 /** 32-bit seed derived from a base seed and a label (FNV-1a, then murmur3's finaliser). */
 export function deriveSeed(seed: number, label: string): number {
-  let h = 0x811c9dc5 ^ (seed | 0);
-  const text = `${seed}|${label}`;
+  // NOTE: the seed enters only through the text; xor-ing it into the offset basis as well made seeds 1 and 2 collide.
+  let h = 0x811c9dc5;
+  const text = `${seed | 0}|${label}`;
   for (let i = 0; i < text.length; i++) {
     h ^= text.charCodeAt(i);
     h = Math.imul(h, 0x01000193);

@@ -18,7 +18,7 @@ export interface ScanLayout {
   /** First and last bin (inclusive) of each admissible window; windows are ordered by start, then end. */
   starts: Int32Array;
   ends: Int32Array;
-  /** Windows starting at bin s are rowStart[s] .. rowStart[s + 1] − 1; each row's ends run s, s + 1, ... */
+  /** Windows starting at bin s are rowStart[s] .. rowStart[s + 1] − 1; within a row the ends are consecutive bins. */
   rowStart: Int32Array;
   /** Window population / total population. */
   populationShare: Float64Array;
@@ -111,8 +111,6 @@ export interface ScanWindow {
   size: number;
 }
 
-/** Monte Carlo p-values below this use the Gumbel tail (when there are enough cases). */
-export const GUMBEL_BELOW_MC_P = 0.01;
 /** Fewest cases for which the Gumbel tail is used (the null maximum is too lumpy below). */
 export const GUMBEL_MIN_CASES = 20;
 /** Replicates evaluated in full before the count filter is set. */
@@ -131,7 +129,10 @@ export interface ScanOutcome {
   mcP: number;
   /** Gumbel tail p fitted to the replicate maxima by the method of moments; null without spread or replicates. */
   gumbelP: number | null;
-  /** mcP, or gumbelP when mcP ≤ GUMBEL_BELOW_MC_P and totalCases ≥ GUMBEL_MIN_CASES. */
+  /**
+   * mcP; when no replicate reached the observed maximum (mcP at its floor 1/(R+1)) and totalCases ≥
+   * GUMBEL_MIN_CASES, min(mcP, gumbelP), so that p can go below the Monte Carlo resolution.
+   */
   pValue: number;
   pValueMethod: 'monte_carlo' | 'gumbel';
 }
@@ -194,29 +195,24 @@ function countThresholds(kernel: ScanKernel, level: number): Int32Array {
 }
 
 /**
- * Largest LLR over the windows for bin counts (running sums along each row of windows). With `minCount`, only
- * windows whose count reaches it are evaluated (a cheap, well-predicted integer test); without it, every window
- * with more cases than expected. Sets out.index to the best window (−1 when none).
+ * Largest LLR over all windows with more cases than expected, for bin counts (running sums along each row of
+ * windows: within a row the ends are consecutive bins). Sets out.index to the best window (−1 when none).
  */
-function maxWindowLlr(
-  layout: ScanLayout,
-  kernel: ScanKernel,
-  counts: Int32Array,
-  minCount: Int32Array | null,
-  out: { index: number },
-): number {
+function maxWindowLlrFull(layout: ScanLayout, kernel: ScanKernel, counts: Int32Array, out: { index: number }): number {
   const { bins, ends, rowStart } = layout;
   const { expected, lnExpected, lnRestExpected, xlnx, totalCases } = kernel;
   let best = 0;
   let bestIndex = -1;
   for (let s = 0; s < bins; s++) {
+    const rowBegin = rowStart[s] as number;
     const rowEnd = rowStart[s + 1] as number;
-    let e = s;
+    if (rowBegin === rowEnd) continue;
+    let e = ends[rowBegin] as number;
     let c = 0;
-    for (let i = rowStart[s] as number; i < rowEnd; i++) {
-      const last = ends[i] as number;
-      while (e <= last) c += counts[e++] as number;
-      if (minCount === null ? c > (expected[i] as number) : c >= (minCount[i] as number)) {
+    for (let b = s; b < e; b++) c += counts[b] as number;
+    for (let i = rowBegin; i < rowEnd; i++, e++) {
+      c += counts[e] as number;
+      if (c > (expected[i] as number)) {
         const r = totalCases - c;
         const llr = (xlnx[c] as number) - c * (lnExpected[i] as number) + (xlnx[r] as number) - r * (lnRestExpected[i] as number);
         if (llr > best) {
@@ -227,6 +223,33 @@ function maxWindowLlr(
     }
   }
   out.index = bestIndex;
+  return best;
+}
+
+/**
+ * Same maximum, evaluating only windows whose count reaches minCount (a cheap, well-predicted integer test).
+ * Exact whenever the true maximum reaches the level minCount was built for.
+ */
+function maxWindowLlrFiltered(layout: ScanLayout, kernel: ScanKernel, counts: Int32Array, minCount: Int32Array): number {
+  const { bins, ends, rowStart } = layout;
+  const { lnExpected, lnRestExpected, xlnx, totalCases } = kernel;
+  let best = 0;
+  for (let s = 0; s < bins; s++) {
+    const rowBegin = rowStart[s] as number;
+    const rowEnd = rowStart[s + 1] as number;
+    if (rowBegin === rowEnd) continue;
+    let e = ends[rowBegin] as number;
+    let c = 0;
+    for (let b = s; b < e; b++) c += counts[b] as number;
+    for (let i = rowBegin; i < rowEnd; i++, e++) {
+      c += counts[e] as number;
+      if (c >= (minCount[i] as number)) {
+        const r = totalCases - c;
+        const llr = (xlnx[c] as number) - c * (lnExpected[i] as number) + (xlnx[r] as number) - r * (lnRestExpected[i] as number);
+        if (llr > best) best = llr;
+      }
+    }
+  }
   return best;
 }
 
@@ -253,7 +276,7 @@ export function computeGumbelTailP(sample: ArrayLike<number>, x: number): number
 export function runPoissonScan(
   layout: ScanLayout,
   cases: ArrayLike<number>,
-  options: { replicates: number; seed: number },
+  options: { replicates: number; seed: number; /** Default true; false evaluates every window of every replicate. */ countFilter?: boolean },
 ): ScanOutcome {
   if (cases.length !== layout.bins) throw new RangeError('cases must have one count per bin');
   const replicates = options.replicates;
@@ -274,7 +297,7 @@ export function runPoissonScan(
   const kernel = createKernel(layout, totalCases);
   const observedCounts = Int32Array.from(cases as ArrayLike<number>);
   const at = { index: -1 };
-  const observed = maxWindowLlr(layout, kernel, observedCounts, null, at);
+  const observed = maxWindowLlrFull(layout, kernel, observedCounts, at);
   if (at.index < 0) return empty;
   const i = at.index;
   const start = layout.starts[i] as number;
@@ -307,18 +330,22 @@ export function runPoissonScan(
   for (let r = 0; r < replicates; r++) {
     counts.fill(0);
     drawMultinomialInto(table, totalCases, random, counts);
-    let t = minCount === null ? maxWindowLlr(layout, kernel, counts, null, at) : maxWindowLlr(layout, kernel, counts, minCount, at);
-    if (minCount !== null && t < floorLevel) t = maxWindowLlr(layout, kernel, counts, null, at);
+    let t: number;
+    if (minCount === null) t = maxWindowLlrFull(layout, kernel, counts, at);
+    else {
+      t = maxWindowLlrFiltered(layout, kernel, counts, minCount);
+      if (t < floorLevel) t = maxWindowLlrFull(layout, kernel, counts, at);
+    }
     maxima[r] = t;
     if (t >= threshold) exceedances++;
     if (r < pilot) {
       floorLevel = Math.min(floorLevel, t);
-      if (r === pilot - 1 && floorLevel > 0) minCount = countThresholds(kernel, floorLevel * (1 - 1e-9));
+      if (r === pilot - 1 && floorLevel > 0 && options.countFilter !== false) minCount = countThresholds(kernel, floorLevel * (1 - 1e-9));
     }
   }
   const mcP = (1 + exceedances) / (replicates + 1);
   const gumbelP = computeGumbelTailP(maxima, observed);
-  const useGumbel = gumbelP !== null && mcP <= GUMBEL_BELOW_MC_P && totalCases >= GUMBEL_MIN_CASES;
+  const useGumbel = gumbelP !== null && exceedances === 0 && totalCases >= GUMBEL_MIN_CASES && gumbelP < mcP;
   return {
     best,
     windowsTested,

@@ -26,10 +26,14 @@ interface PreparedSystem {
 function prepare(systems: readonly TrendSystem[], truncation: Truncation): PreparedSystem[] {
   const out: PreparedSystem[] = [];
   for (const s of systems) {
-    const times = s.eventTimes.filter((t) => t > 0 && t <= s.endTime).slice().sort((x, y) => x - y);
+    const times = s.eventTimes.filter((t) => t > 0 && t <= s.endTime);
     if (truncation === 'failure') {
       if (times.length === 0) continue;
-      const last = times.pop() as number;
+      // Observation ends at the last event, which is dropped (one of possibly tied last events).
+      let lastIndex = 0;
+      for (let i = 1; i < times.length; i++) if ((times[i] as number) > (times[lastIndex] as number)) lastIndex = i;
+      const last = times[lastIndex] as number;
+      times.splice(lastIndex, 1);
       out.push({ end: last, times });
     } else if (s.endTime > 0) {
       out.push({ end: s.endTime, times });

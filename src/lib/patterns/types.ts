@@ -120,7 +120,7 @@ export interface PatternCohort {
   /** Exact conditional 95% limits of rateRatio (Clopper–Pearson mapped); ciHigh null = unbounded. */
   ciLow: number;
   ciHigh: number | null;
-  /** Scan p-value that pays for the window search (Monte Carlo, Gumbel tail when below MC resolution). */
+  /** Scan p-value that pays for the window search (Monte Carlo; Gumbel tail when no replicate reached it). */
   pValue: number;
   /** Benjamini–Hochberg adjusted pValue across every cohort of the report. */
   qValue: number;
