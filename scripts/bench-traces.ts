@@ -77,7 +77,7 @@ try {
     seed: 181,
   });
   const file = path.join(dir, 'capture.csv');
-  writeFileSync(file, captureToCsv(capture, { preamble: ['Seepline benchmark capture', 'Sample rate,1000000'] }));
+  writeFileSync(file, captureToCsv(capture, { preamble: ['Seepline benchmark capture', 'Sample rate,1000000'], timeDecimals: 7 }));
   const sizeMB = statSync(file).size / 1e6;
   console.log(`capture: ${SAMPLES.toLocaleString('en-US')} samples, ${sizeMB.toFixed(1)} MB; goal < 0.85 s and < 300 MB`);
   measure('node --import tsx src/cli/trace-main.ts FILE --json', ['--import', 'tsx', 'src/cli/trace-main.ts', file, '--json']);

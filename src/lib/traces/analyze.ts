@@ -3,8 +3,13 @@
  * (phase.ts), decides which channels are stuck, follows the speed across the capture, and classifies the
  * capture (verdict.ts).
  *
+ * Stuck: a channel is stuck when its state levels are under STUCK_MIN_SWING_V apart, when it is high (or low)
+ * for more than STUCK_MAX_HIGH_TIME_PCT of the capture, or when it switches less than STUCK_EDGE_RATIO as
+ * often as the other channel. Bridged channels (verdict.ts isBridged: one waveform on both) are measured on
+ * shared state levels and are never called stuck, whatever their levels look like.
+ *
  * Output conventions for degenerate cases:
- * - a stuck channel reports lowV = highV = the level it rests at, freqHz 0, dutyPct 100 when it rests high
+ * - a stuck channel reports lowV = highV = the level it rests at (its median), freqHz 0, dutyPct 100 when it rests high
  *   (above the other channel's mid level, or half the supply when both are stuck) and 0 when low,
  *   glitches 0; `edges` still counts the transitions it did make;
  * - when the phase cannot be measured (a channel stuck, or no A period holding a B edge), phaseDeg is 0 and
@@ -24,18 +29,19 @@ import {
   type ChannelDetail,
   type PulseMetrics,
 } from './measure';
-import { computeCorrelation, computePhase, countQuadrature, type Direction } from './phase';
+import { computeCorrelationStats, computePhase, countQuadrature, type Direction } from './phase';
 import {
   DUTY_TOLERANCE_PCT,
   LOW_AMPLITUDE_FRACTION,
   LOW_LEVEL_RAISED_FRACTION,
   QUADRATURE_NOMINAL_DEG,
   QUADRATURE_TOLERANCE_DEG,
-  SHORTED_MAX_PHASE_DEG,
+  SHORTED_MAX_AMPLITUDE_RATIO,
   SHORTED_MIN_CORRELATION,
   SPEED_CHANGE_PCT,
   assumeSupplyV,
   computeVerdict,
+  isBridged,
   type Finding,
   type SpeedTrend,
   type Verdict,
@@ -90,7 +96,7 @@ export interface TraceThresholds {
   lowAmplitudeHighV: number;
   lowLevelRaisedFraction: number;
   shortedMinCorrelation: number;
-  shortedMaxPhaseDeg: number;
+  shortedMaxAmplitudeRatio: number;
   stuckMinSwingV: number;
   stuckMaxHighTimePct: number;
   dutyTolerancePct: number;
@@ -139,10 +145,21 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
 
   const detail = { a: measureChannel(time, a), b: measureChannel(time, b) };
   const keys = ['a', 'b'] as const;
+  const stats = computeCorrelationStats(a, b);
+  const correlation = stats.correlation;
+  const amplitudeRatio = stats.stdA > 0 ? stats.stdB / stats.stdA : stats.stdB > 0 ? Infinity : 1;
+  // Bridged channels carry one waveform: measure both on the same state levels (those of a switching
+  // channel), so that three-level bridges do not give each channel a different pair of levels.
+  const bridged = isBridged(correlation, amplitudeRatio) && !(detail.a.flat && detail.b.flat);
+  if (bridged) {
+    if (detail.a.flat) detail.a = measureChannel(time, a, detail.b.levels);
+    else detail.b = measureChannel(time, b, detail.a.levels);
+  }
   const stuck = { a: false, b: false };
   for (const k of keys) {
     const d = detail[k];
-    stuck[k] = d.flat || d.highTimePct > STUCK_MAX_HIGH_TIME_PCT || d.highTimePct < 100 - STUCK_MAX_HIGH_TIME_PCT;
+    stuck[k] =
+      !bridged && (d.flat || d.highTimePct > STUCK_MAX_HIGH_TIME_PCT || d.highTimePct < 100 - STUCK_MAX_HIGH_TIME_PCT);
   }
   const switching = keys.filter((k) => !stuck[k]);
   if (switching.length > 0) {
@@ -154,7 +171,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
       );
     }
   }
-  if (!stuck.a && !stuck.b) {
+  if (!stuck.a && !stuck.b && !bridged) {
     const ea = detail.a.clean.timesS.length;
     const eb = detail.b.clean.timesS.length;
     if (eb >= STUCK_EDGE_RATIO_MIN_EDGES && ea < STUCK_EDGE_RATIO * eb) stuck.a = true;
@@ -174,7 +191,6 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
   const phaseMeasured = phase !== null && phase.cycles > 0;
   const phaseDeg = phaseMeasured ? phase.phaseDeg : 0;
   const direction: Direction = phaseMeasured ? phase.direction : 'none';
-  const correlation = computeCorrelation(a, b);
   const quadrature = bothLive
     ? countQuadrature(detail.a.clean, detail.b.clean, 0.5 / sampleRateHz)
     : { count: 0, invalidTransitions: 0 };
@@ -197,7 +213,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
     const otherStuck = stuck[k === 'a' ? 'b' : 'a'];
     const edges = d.raw.timesS.length;
     if (stuck[k]) {
-      const restV = d.levels.modeV;
+      const restV = restLevel(k === 'a' ? a : b);
       const ref = otherStuck ? supplyV / 2 : other.levels.midV;
       return {
         lowV: restV,
@@ -237,6 +253,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
     direction,
     phaseMeasured,
     correlation,
+    amplitudeRatio,
     supplyV,
     supplySource,
     speedTrend,
@@ -285,7 +302,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
       lowAmplitudeHighV: round(LOW_AMPLITUDE_FRACTION * supplyV, 3),
       lowLevelRaisedFraction: LOW_LEVEL_RAISED_FRACTION,
       shortedMinCorrelation: SHORTED_MIN_CORRELATION,
-      shortedMaxPhaseDeg: SHORTED_MAX_PHASE_DEG,
+      shortedMaxAmplitudeRatio: SHORTED_MAX_AMPLITUDE_RATIO,
       stuckMinSwingV: STUCK_MIN_SWING_V,
       stuckMaxHighTimePct: STUCK_MAX_HIGH_TIME_PCT,
       dutyTolerancePct: DUTY_TOLERANCE_PCT,
@@ -335,11 +352,20 @@ export function computeSpeedTrend(pulses: PulseMetrics, startS: number, endS: nu
   return { startHz, endHz, changePct: ((endHz - startHz) / startHz) * 100 };
 }
 
+/** Where a stuck channel rests: the median of (at most about 65,536 evenly strided) samples, volts. */
+function restLevel(values: Float64Array): number {
+  const stride = Math.max(1, Math.floor(values.length / 65_536));
+  const picked = new Float64Array(Math.ceil(values.length / stride));
+  let m = 0;
+  for (let i = 0; i < values.length; i += stride) picked[m++] = values[i]!;
+  return median(picked, m);
+}
+
 /** Round to `decimals` places. */
 function round(x: number, decimals: number): number {
   if (!Number.isFinite(x)) return x;
   const f = 10 ** decimals;
-  return Math.round(x * f) / f;
+  return Math.round(x * f) / f + 0; // + 0 turns -0 into 0
 }
 
 /** Round to `digits` significant digits. */

@@ -90,8 +90,11 @@ const DIGIT_9 = 57;
 const LOWER_E = 101;
 const UPPER_E = 69;
 
-/** Digits kept in a mantissa: below 2^53, so the integer part is exact. */
-const MAX_MANTISSA_DIGITS = 15;
+/** Bytes of rows handed to the row loop per call (the first call small, so it completes unoptimised and V8 sees every path, the end of the loop included, before optimising). */
+const ROW_CHUNK_BYTES = 4 * 1024 * 1024;
+const FIRST_ROW_CHUNK_BYTES = 16 * 1024;
+/** Digits stop being added once the mantissa reaches this: at most 15 significant digits, below 2^53, exact. */
+const MANTISSA_LIMIT = 1e14;
 const POW10: Float64Array = (() => {
   const p = new Float64Array(23);
   p[0] = 1;
@@ -106,7 +109,7 @@ let cursor = 0;
 
 /**
  * Read a decimal number at `p` (optional sign, digits, '.' or — when `decimalComma` — ',' as the decimal
- * mark, optional exponent). Sets `cursor` to the first byte after it; returns NaN when no digits are there.
+ * mark, optional exponent; same grammar as the row loop in parseRows). Sets `cursor` to the first byte after it; returns NaN when no digits are there.
  */
 function readNumber(bytes: Uint8Array, p: number, n: number, decimalComma: boolean): number {
   let c = p < n ? bytes[p]! : 0;
@@ -118,25 +121,19 @@ function readNumber(bytes: Uint8Array, p: number, n: number, decimalComma: boole
     c = ++p < n ? bytes[p]! : 0;
   }
   let mantissa = 0;
-  let significant = 0;
   let exponent = 0;
   let digits = 0;
   while (c >= DIGIT_0 && c <= DIGIT_9) {
-    if (significant < MAX_MANTISSA_DIGITS) {
-      mantissa = mantissa * 10 + (c - DIGIT_0);
-      if (mantissa !== 0) significant++;
-    } else {
-      exponent++;
-    }
+    if (mantissa < MANTISSA_LIMIT) mantissa = mantissa * 10 + (c - DIGIT_0);
+    else exponent++;
     digits++;
     c = ++p < n ? bytes[p]! : 0;
   }
   if (c === DOT || (decimalComma && c === COMMA)) {
     c = ++p < n ? bytes[p]! : 0;
     while (c >= DIGIT_0 && c <= DIGIT_9) {
-      if (significant < MAX_MANTISSA_DIGITS) {
+      if (mantissa < MANTISSA_LIMIT) {
         mantissa = mantissa * 10 + (c - DIGIT_0);
-        if (mantissa !== 0) significant++;
         exponent--;
       }
       digits++;
@@ -372,30 +369,36 @@ export function parseCapture(bytes: Uint8Array): CaptureParseResult {
 
   // Phase 2: the data rows. Every row needs at least 5 bytes plus a line end, which bounds the row count.
   const capacity = Math.min(MAX_CAPTURE_SAMPLES, Math.floor((n - dataStart + 1) / 6) + 1);
-  const state: RowState = {
+  const out: RowOutput = {
     time: new Float64Array(capacity),
     a: new Float64Array(capacity),
     b: new Float64Array(capacity),
-    count: 0,
-    previousTime: -Infinity,
-    lineNo: firstDataLine - 1,
-    lastDataLine: firstDataLine,
   };
+  const pos = Float64Array.of(0, -Infinity, firstDataLine - 1, firstDataLine);
   const firstEnd = lineEnd(bytes, dataStart, n);
   const sawDecimalComma = delimiter !== COMMA && containsComma(bytes, dataStart, firstEnd);
   const units: RowUnits = { delimiter, timeScale, scaleA, scaleB, timeUnit };
   // The row loop reads without bounds checks, relying on every line ending in LF: run it up to the last
   // LF, then on a copy of any unterminated last line with an LF appended.
+  // NOTE: it runs on line-aligned chunks (a small first one, then ROW_CHUNK_BYTES). A single call over
+  // 48 MB spends its whole life in on-stack-replaced code compiled before the end of the loop had ever run,
+  // and such code deoptimised at the end of every later call; chunked, V8 compiles it normally.
   const lastLf = bytes.lastIndexOf(LF);
-  if (lastLf >= dataStart) parseRows(bytes, dataStart, lastLf + 1, units, state);
+  for (let from = dataStart, chunk = FIRST_ROW_CHUNK_BYTES; from <= lastLf; chunk = ROW_CHUNK_BYTES) {
+    const to = from + chunk >= lastLf ? lastLf + 1 : bytes.indexOf(LF, from + chunk) + 1;
+    parseRows(bytes, from, to, units, out.time, out.a, out.b, pos);
+    from = to;
+  }
   const tailStart = Math.max(dataStart, lastLf + 1);
   if (tailStart < n) {
     const tail = new Uint8Array(n - tailStart + 1);
     tail.set(bytes.subarray(tailStart, n));
     tail[tail.length - 1] = LF;
-    parseRows(tail, 0, tail.length, units, state);
+    parseRows(tail, 0, tail.length, units, out.time, out.a, out.b, pos);
   }
-  const { time, a, b, count, lastDataLine } = state;
+  const { time, a, b } = out;
+  const count = pos[POS_COUNT]!;
+  const lastDataLine = pos[POS_LAST_DATA_LINE]!;
 
   const fit = (x: Float64Array): Float64Array =>
     count === x.length ? x : count * 2 < x.length ? x.slice(0, count) : x.subarray(0, count);
@@ -416,16 +419,18 @@ export function parseCapture(bytes: Uint8Array): CaptureParseResult {
   };
 }
 
-/** Where the row loop keeps its output and position (copied to locals inside the loop). */
-interface RowState {
+/** Output arrays of the row loop. */
+interface RowOutput {
   time: Float64Array;
   a: Float64Array;
   b: Float64Array;
-  count: number;
-  previousTime: number;
-  lineNo: number;
-  lastDataLine: number;
 }
+
+/** Indices into the row loop's position array (a Float64Array, so the loop does no named property writes). */
+const POS_COUNT = 0;
+const POS_PREVIOUS_TIME = 1;
+const POS_LINE = 2;
+const POS_LAST_DATA_LINE = 3;
 
 /** Fixed facts about the data rows. */
 interface RowUnits {
@@ -439,17 +444,31 @@ interface RowUnits {
 /**
  * Parse data rows in bytes [from, end), where bytes[end - 1] is LF and every line ends in LF, so the loop
  * never reads past `end` without checking. Numbers are parsed inline (same grammar as readNumber).
+ * NOTE: the position lives in a Float64Array and the loop makes no named property writes: a property
+ * write after the loop, reached first in optimised (on-stack-replaced) code, made V8 deoptimise on
+ * every chunk.
  */
-function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits, state: RowState): void {
-  const { delimiter, timeScale, scaleA, scaleB } = units;
+function parseRows(
+  bytes: Uint8Array,
+  from: number,
+  end: number,
+  units: RowUnits,
+  time: Float64Array,
+  a: Float64Array,
+  b: Float64Array,
+  pos: Float64Array,
+): void {
+  const delimiter = units.delimiter;
+  const timeScale = units.timeScale;
+  const scaleA = units.scaleA;
+  const scaleB = units.scaleB;
   const decimalComma = delimiter !== COMMA;
   const tab = delimiter === TAB;
-  const { time, a, b } = state;
   const capacity = time.length;
-  let count = state.count;
-  let previousTime = state.previousTime;
-  let lineNo = state.lineNo;
-  let lastDataLine = state.lastDataLine;
+  let count = pos[POS_COUNT]!;
+  let previousTime = pos[POS_PREVIOUS_TIME]!;
+  let lineNo = pos[POS_LINE]!;
+  let lastDataLine = pos[POS_LAST_DATA_LINE]!;
   let p = from;
   let t = 0;
   let va = 0;
@@ -458,7 +477,7 @@ function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits
     lineNo++;
     const start = p;
     let c = bytes[p]!;
-    while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+    while (c <= QUOTE && (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab))) c = bytes[++p]!;
     if (c === LF) {
       p++;
       continue;
@@ -471,31 +490,27 @@ function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits
       } else if (c === PLUS) {
         c = bytes[++p]!;
       }
+      // Digits beyond MANTISSA_LIMIT are dropped (integer part: counted in the exponent).
       let mantissa = 0;
-      let significant = 0;
       let exponent = 0;
-      let digits = 0;
+      const numberStart = p;
       while (c >= DIGIT_0 && c <= DIGIT_9) {
-        if (significant < MAX_MANTISSA_DIGITS) {
-          mantissa = mantissa * 10 + (c - DIGIT_0);
-          if (mantissa !== 0) significant++;
-        } else {
-          exponent++;
-        }
-        digits++;
+        if (mantissa < MANTISSA_LIMIT) mantissa = mantissa * 10 + (c - DIGIT_0);
+        else exponent++;
         c = bytes[++p]!;
       }
+      let digits = p - numberStart;
       if (c === DOT || (decimalComma && c === COMMA)) {
         c = bytes[++p]!;
+        const fractionStart = p;
         while (c >= DIGIT_0 && c <= DIGIT_9) {
-          if (significant < MAX_MANTISSA_DIGITS) {
+          if (mantissa < MANTISSA_LIMIT) {
             mantissa = mantissa * 10 + (c - DIGIT_0);
-            if (mantissa !== 0) significant++;
             exponent--;
           }
-          digits++;
           c = bytes[++p]!;
         }
+        digits += p - fractionStart;
       }
       if (c === LOWER_E || c === UPPER_E) {
         c = bytes[++p]!;
@@ -522,14 +537,14 @@ function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits
       else if (exponent > 0) value = exponent <= 22 ? mantissa * POW10[exponent]! : mantissa * Math.pow(10, exponent);
       else value = exponent >= -22 ? mantissa / POW10[-exponent]! : mantissa / Math.pow(10, -exponent);
       if (negative) value = -value;
-      while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+      while (c <= QUOTE && (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab))) c = bytes[++p]!;
       if (field === 0) t = value;
       else if (field === 1) va = value;
       else vb = value;
       if (field < 2) {
         if (c !== delimiter) throw rowError(bytes, start, end, lineNo, missing(bytes, p, end, field + 2));
         c = bytes[++p]!;
-        while (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab)) c = bytes[++p]!;
+        while (c <= QUOTE && (c === SPACE || c === CR || c === QUOTE || (c === TAB && !tab))) c = bytes[++p]!;
       }
     }
     if (c === LF) p++;
@@ -555,10 +570,10 @@ function parseRows(bytes: Uint8Array, from: number, end: number, units: RowUnits
     count++;
     lastDataLine = lineNo;
   }
-  state.count = count;
-  state.previousTime = previousTime;
-  state.lineNo = lineNo;
-  state.lastDataLine = lastDataLine;
+  pos[POS_COUNT] = count;
+  pos[POS_PREVIOUS_TIME] = previousTime;
+  pos[POS_LINE] = lineNo;
+  pos[POS_LAST_DATA_LINE] = lastDataLine;
 }
 
 const FIELD_NAMES = ['time (column 1)', 'channel A (column 2)', 'channel B (column 3)'] as const;

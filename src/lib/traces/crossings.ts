@@ -38,34 +38,39 @@ export function findMidCrossings(time: ArrayLike<number>, values: ArrayLike<numb
   let high = initialHigh;
   let out: Float64Array = new Float64Array(256);
   let count = 0;
-  // Last sample index on the current side of mid (>= mid when high, <= mid when low).
-  let lastSide = 0;
-  for (let i = 1; i < n; i++) {
-    const x = values[i]!;
+  // Tight scans: skip samples on the current side of mid; then walk through the hysteresis band. Reaching
+  // the far threshold is a transition between the last sample on the old side (j) and the next (j + 1);
+  // coming back across mid first is noise, and the scan resumes.
+  let i = 1;
+  while (i < n) {
     if (high) {
-      if (x >= mid) lastSide = i;
-      else if (x < lower) {
-        const j = lastSide;
+      while (i < n && values[i]! >= mid) i++;
+      if (i >= n) break;
+      const j = i - 1;
+      while (i < n && values[i]! < mid && values[i]! >= lower) i++;
+      if (i >= n) break;
+      if (values[i]! < lower) {
         const x0 = values[j]!;
-        const x1 = values[j + 1]!;
         const t0 = time[j]!;
-        const tc = t0 + ((mid - x0) / (x1 - x0)) * (time[j + 1]! - t0);
         if (count === out.length) out = grow(out);
-        out[count++] = tc;
+        out[count++] = t0 + ((mid - x0) / (values[j + 1]! - x0)) * (time[j + 1]! - t0);
         high = false;
-        lastSide = i;
+        i++;
       }
-    } else if (x <= mid) lastSide = i;
-    else if (x > upper) {
-      const j = lastSide;
-      const x0 = values[j]!;
-      const x1 = values[j + 1]!;
-      const t0 = time[j]!;
-      const tc = t0 + ((mid - x0) / (x1 - x0)) * (time[j + 1]! - t0);
-      if (count === out.length) out = grow(out);
-      out[count++] = tc;
-      high = true;
-      lastSide = i;
+    } else {
+      while (i < n && values[i]! <= mid) i++;
+      if (i >= n) break;
+      const j = i - 1;
+      while (i < n && values[i]! > mid && values[i]! <= upper) i++;
+      if (i >= n) break;
+      if (values[i]! > upper) {
+        const x0 = values[j]!;
+        const t0 = time[j]!;
+        if (count === out.length) out = grow(out);
+        out[count++] = t0 + ((mid - x0) / (values[j + 1]! - x0)) * (time[j + 1]! - t0);
+        high = true;
+        i++;
+      }
     }
   }
   return { timesS: out.slice(0, count), firstRising: !initialHigh, initialHigh };

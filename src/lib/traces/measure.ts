@@ -2,9 +2,13 @@
  * Per-channel pulse measurements following the IEEE Std 181 definitions quoted in REFERENCES.md section 9:
  * - state levels by the histogram method (levels.ts), mid-reference level = 50% between them;
  * - transitions at the mid-reference instants (crossings.ts), with hysteresis sized from the noise;
- * - pulse period = between the initial (rising) transitions of successive positive pulses; frequency =
- *   1 / median period; pulse width = from a rising to the next falling transition; duty cycle = width /
- *   period, reported as the median over complete cycles (robust to the odd glitch or missing pulse).
+ * - pulse period = between the initial (rising) transitions of successive positive pulses; pulse width =
+ *   from a rising to the next falling transition; duty cycle = width / period.
+ * - frequency and duty are taken around the median period: the cycles whose period lies within
+ *   PERIOD_INLIER_FRACTION (25%) of the median period are averaged (1 / their mean period, and the mean
+ *   of their width / period). The median makes this robust to a missing pulse or a leftover glitch; the
+ *   averaging over the inliers removes the one-sample quantisation of captures with ideal steps (a
+ *   median of periods that are 24 or 25 samples long would be off by up to one sample).
  *
  * Thresholds (common practice, CONTRACT.md "Traces"):
  * - a glitch is a pulse (high or low) shorter than GLITCH_FRACTION (10%) of the median pulse of the same
@@ -12,15 +16,21 @@
  *   duty and phase are measured;
  * - a dropout (missing pulse) is a period longer than DROPOUT_PERIOD_RATIO (1.8x) the median of its
  *   neighbouring periods (a local median, so a motor that speeds up or slows down is not mistaken for one);
+ *   a period shorter than DROPOUT_SHORT_PERIOD_RATIO (0.55x) of it also counts: a pulse broken by a brief
+ *   loss of signal that is too long to be a glitch;
  * - a channel is flat (stuck) when its two state levels are less than STUCK_MIN_SWING_V apart.
  */
 import { computeStateLevels, type StateLevels } from './levels';
 import { findMidCrossings, isRisingEdge, type EdgeTrain } from './crossings';
 
+/** Cycles whose period is within this fraction of the median period are averaged for frequency and duty. */
+export const PERIOD_INLIER_FRACTION = 0.25;
 /** A glitch is a pulse shorter than this fraction of the median pulse of its polarity. */
 export const GLITCH_FRACTION = 0.1;
 /** A period longer than this multiple of its local median period is a dropout (missing pulse). */
 export const DROPOUT_PERIOD_RATIO = 1.8;
+/** A period shorter than this multiple of its local median is a broken pulse (counted as a dropout). */
+export const DROPOUT_SHORT_PERIOD_RATIO = 0.55;
 /** Periods on each side of a period that make up its local median. */
 export const DROPOUT_NEIGHBOURS = 4;
 /** Two state levels closer than this (volts) mean the channel does not switch. */
@@ -29,8 +39,13 @@ export const STUCK_MIN_SWING_V = 0.5;
 export const HYSTERESIS_MIN_FRACTION = 0.1;
 export const HYSTERESIS_MAX_FRACTION = 0.3;
 export const HYSTERESIS_NOISE_SIGMAS = 4;
+/**
+ * Samples the state-level histogram uses at most (every k-th sample beyond this). State levels describe the
+ * amplitude distribution, which evenly strided samples represent; edges and glitches use every sample.
+ */
+export const LEVEL_SAMPLE_LIMIT = 500_000;
 /** Samples used at most for the noise estimate (evenly strided). */
-const NOISE_SAMPLE_LIMIT = 65_536;
+const NOISE_SAMPLE_LIMIT = 16_384;
 /** Median absolute deviation to standard deviation for Gaussian noise. */
 const MAD_TO_SIGMA = 1.4826;
 
@@ -44,20 +59,25 @@ export interface PulseMetrics {
   widthsS: Float64Array;
   /** Median period, seconds; NaN without a full period. */
   medianPeriodS: number;
-  /** 1 / median period; 0 without a full period. */
+  /** 1 / mean of the periods within 25% of the median period; 0 without a full period. */
   freqHz: number;
-  /** Median of width / period over the periods, percent; NaN without a full period. */
+  /** Mean of width / period over those cycles, percent; NaN without a full period. */
   dutyPct: number;
+  /** Cycles averaged (period within 25% of the median). */
+  inlierCycles: number;
 }
 
 /** Median of the first `n` values of an array (copies; NaN when empty). */
-export function median(values: ArrayLike<number>, n = values.length): number {
+export function median(values: ArrayLike<number>, count?: number): number {
+  // NOTE: read length on every call; a default parameter read it only sometimes and V8 kept deoptimising.
+  const length = values.length;
+  const n = count === undefined ? length : Math.min(count, length);
   if (n <= 0) return NaN;
   const copy = new Float64Array(n);
   for (let i = 0; i < n; i++) copy[i] = values[i]!;
   copy.sort();
-  const m = n >> 1;
-  return n % 2 === 1 ? copy[m]! : (copy[m - 1]! + copy[m]!) / 2;
+  // Same expression for odd and even n ((x + x) / 2 is exactly x), so no path goes unseen by the optimiser.
+  return (copy[(n - 1) >> 1]! + copy[n >> 1]!) / 2;
 }
 
 /** Periods, widths, frequency and duty cycle of an alternating edge train. */
@@ -84,13 +104,24 @@ export function computePulseMetrics(train: EdgeTrain): PulseMetrics {
     duty[k] = width / period;
   }
   const medianPeriodS = median(periodsS);
+  let sumPeriod = 0;
+  let sumDuty = 0;
+  let inliers = 0;
+  for (let k = 0; k < cycles; k++) {
+    if (Math.abs(periodsS[k]! - medianPeriodS) <= PERIOD_INLIER_FRACTION * medianPeriodS) {
+      sumPeriod += periodsS[k]!;
+      sumDuty += duty[k]!;
+      inliers++;
+    }
+  }
   return {
     periodsS,
     periodStartsS,
     widthsS,
     medianPeriodS,
-    freqHz: cycles > 0 ? 1 / medianPeriodS : 0,
-    dutyPct: cycles > 0 ? median(duty) * 100 : NaN,
+    freqHz: inliers > 0 ? inliers / sumPeriod : 0,
+    dutyPct: inliers > 0 ? (100 * sumDuty) / inliers : NaN,
+    inlierCycles: inliers,
   };
 }
 
@@ -152,8 +183,8 @@ export function removeGlitches(train: EdgeTrain, fraction = GLITCH_FRACTION): Gl
 }
 
 /**
- * Count dropouts: periods longer than `ratio` times the median of the periods around them
- * (DROPOUT_NEIGHBOURS on each side, itself included).
+ * Count dropouts: periods longer than `ratio` times, or shorter than DROPOUT_SHORT_PERIOD_RATIO times, the
+ * median of the periods around them (DROPOUT_NEIGHBOURS on each side, itself included).
  */
 export function countDropouts(periodsS: ArrayLike<number>, ratio = DROPOUT_PERIOD_RATIO): number {
   const n = periodsS.length;
@@ -163,10 +194,19 @@ export function countDropouts(periodsS: ArrayLike<number>, ratio = DROPOUT_PERIO
   for (let k = 0; k < n; k++) {
     const from = Math.max(0, k - DROPOUT_NEIGHBOURS);
     const to = Math.min(n, k + DROPOUT_NEIGHBOURS + 1);
+    // Insertion sort of at most 2 x DROPOUT_NEIGHBOURS + 1 values in a scratch array (no allocation).
     let w = 0;
-    for (let j = from; j < to; j++) window[w++] = periodsS[j]!;
-    const local = median(window, w);
-    if (periodsS[k]! > ratio * local) dropouts++;
+    for (let j = from; j < to; j++) {
+      const x = periodsS[j]!;
+      let q = w++;
+      while (q > 0 && window[q - 1]! > x) {
+        window[q] = window[q - 1]!;
+        q--;
+      }
+      window[q] = x;
+    }
+    const local = (window[(w - 1) >> 1]! + window[w >> 1]!) / 2;
+    if (periodsS[k]! > ratio * local || periodsS[k]! < DROPOUT_SHORT_PERIOD_RATIO * local) dropouts++;
   }
   return dropouts;
 }
@@ -219,7 +259,7 @@ const MULTI_LEVEL_MIN_SHARE = 0.1;
  * 2 x STUCK_MIN_SWING_V from that mode, the levels are taken instead as the modes of the samples below and
  * above it (the outer levels). A flat, noisy line keeps its near-equal levels and is reported stuck.
  */
-function multiLevelFallback(values: ArrayLike<number>, levels: StateLevels): StateLevels {
+function multiLevelFallback(values: ArrayLike<number>, levels: StateLevels, stride: number): StateLevels {
   if (levels.highV - levels.lowV >= STUCK_MIN_SWING_V) return levels;
   const away = 2 * STUCK_MIN_SWING_V;
   const n = values.length;
@@ -232,8 +272,8 @@ function multiLevelFallback(values: ArrayLike<number>, levels: StateLevels): Sta
   }
   if (below + above < MULTI_LEVEL_MIN_SHARE * n) return levels;
   const side = MULTI_LEVEL_MIN_SHARE * n * 0.5;
-  const lowV = below >= side ? computeStateLevels(values, { rangeV: [-Infinity, levels.modeV - away] }).modeV : levels.modeV;
-  const highV = above >= side ? computeStateLevels(values, { rangeV: [levels.modeV + away, Infinity] }).modeV : levels.modeV;
+  const lowV = below >= side ? computeStateLevels(values, { rangeV: [-Infinity, levels.modeV - away], stride }).modeV : levels.modeV;
+  const highV = above >= side ? computeStateLevels(values, { rangeV: [levels.modeV + away, Infinity], stride }).modeV : levels.modeV;
   return { ...levels, lowV, highV, midV: (lowV + highV) / 2 };
 }
 
@@ -258,10 +298,14 @@ export interface ChannelDetail {
   highTimePct: number;
 }
 
-/** Measure one channel sampled at `time` (seconds): levels, noise, transitions, glitches, pulses, dropouts. */
-export function measureChannel(time: ArrayLike<number>, values: ArrayLike<number>): ChannelDetail {
+/**
+ * Measure one channel sampled at `time` (seconds): levels, noise, transitions, glitches, pulses, dropouts.
+ * `levels` replaces the channel's own state levels (used for bridged channels, which carry one waveform).
+ */
+export function measureChannel(time: ArrayLike<number>, values: ArrayLike<number>, levelsOverride?: StateLevels): ChannelDetail {
   const n = Math.min(time.length, values.length);
-  const levels = multiLevelFallback(values, computeStateLevels(values));
+  const stride = Math.max(1, Math.floor(n / LEVEL_SAMPLE_LIMIT));
+  const levels = levelsOverride ?? multiLevelFallback(values, computeStateLevels(values, { stride }), stride);
   const swingV = levels.highV - levels.lowV;
   const noiseV = estimateNoiseV(values, levels.lowV, levels.highV);
   const flat = !(swingV >= STUCK_MIN_SWING_V);

@@ -69,30 +69,53 @@ export function foldLag(lagDeg: number): { phaseDeg: number; direction: Directio
   return { phaseDeg, direction: lag < 180 ? 'a_leads' : 'b_leads' };
 }
 
-/** Pearson correlation of two equally long sample arrays (0 when either is constant). */
-export function computeCorrelation(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  const n = Math.min(a.length, b.length);
-  if (n < 2) return 0;
+/** Samples the correlation uses at most (every k-th pair beyond this). */
+export const CORRELATION_SAMPLE_LIMIT = 500_000;
+
+/** Correlation and spread of two channels. */
+export interface CorrelationStats {
+  /** Pearson correlation (0 when either channel is constant). */
+  correlation: number;
+  /** Standard deviations of the two channels, volts. */
+  stdA: number;
+  stdB: number;
+}
+
+/** Pearson correlation and standard deviations of two equally long sample arrays. */
+export function computeCorrelationStats(a: ArrayLike<number>, b: ArrayLike<number>): CorrelationStats {
+  const total = Math.min(a.length, b.length);
+  if (total < 2) return { correlation: 0, stdA: 0, stdB: 0 };
+  const stride = Math.max(1, Math.floor(total / CORRELATION_SAMPLE_LIMIT));
+  // One pass over values shifted by the first sample (keeps the sums small, so no cancellation trouble).
+  const ka = a[0]!;
+  const kb = b[0]!;
   let sa = 0;
   let sb = 0;
-  for (let i = 0; i < n; i++) {
-    sa += a[i]!;
-    sb += b[i]!;
-  }
-  const ma = sa / n;
-  const mb = sb / n;
   let saa = 0;
   let sbb = 0;
   let sab = 0;
-  for (let i = 0; i < n; i++) {
-    const da = a[i]! - ma;
-    const db = b[i]! - mb;
+  let n = 0;
+  for (let i = 0; i < total; i += stride, n++) {
+    const da = a[i]! - ka;
+    const db = b[i]! - kb;
+    sa += da;
+    sb += db;
     saa += da * da;
     sbb += db * db;
     sab += da * db;
   }
-  if (!(saa > 0) || !(sbb > 0)) return 0;
-  return Math.max(-1, Math.min(1, sab / Math.sqrt(saa * sbb)));
+  const va = Math.max(0, saa - (sa * sa) / n);
+  const vb = Math.max(0, sbb - (sb * sb) / n);
+  const stdA = Math.sqrt(va / n);
+  const stdB = Math.sqrt(vb / n);
+  if (!(va > 1e-12 * saa) || !(vb > 1e-12 * sbb) || !(va > 0) || !(vb > 0)) return { correlation: 0, stdA, stdB };
+  const correlation = Math.max(-1, Math.min(1, (sab - (sa * sb) / n) / Math.sqrt(va * vb)));
+  return { correlation, stdA, stdB };
+}
+
+/** Pearson correlation of two equally long sample arrays (0 when either is constant). */
+export function computeCorrelation(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  return computeCorrelationStats(a, b).correlation;
 }
 
 /** Count change for each (previous state, next state) pair, index prev * 4 + next; NaN = invalid step. */

@@ -5,10 +5,15 @@
  * Thresholds (common practice; CONTRACT.md "Traces"):
  * - healthy quadrature: phase 90 +/- 30 electrical degrees (QUADRATURE_NOMINAL_DEG, QUADRATURE_TOLERANCE_DEG);
  * - glitch: a pulse shorter than 10% of the median pulse (measure.ts GLITCH_FRACTION);
- * - dropout: a period longer than 1.8x its local median period (measure.ts DROPOUT_PERIOD_RATIO);
+ * - dropout: a period longer than 1.8x its local median period (measure.ts DROPOUT_PERIOD_RATIO), or
+ *   shorter than 0.55x (a pulse broken by a brief loss of signal, DROPOUT_SHORT_PERIOD_RATIO);
  * - low amplitude: a high state under 60% of the sensor supply (LOW_AMPLITUDE_FRACTION); the supply is
  *   `supplyV` when given, else assumed from the higher of the two high states: 5 V below 6 V, else 12 V;
- * - channels shorted: correlation above 0.95 with a phase under 15 degrees (the same waveform on both);
+ * - channels shorted: the same waveform on both channels, i.e. a sample correlation above 0.95 with
+ *   amplitudes (standard deviations) within a factor of 1.5 of each other. For two-level signals a
+ *   correlation above 0.95 already means a phase under about 5 degrees; the phase itself is not used
+ *   because a bridge of push-pull outputs gives three levels, on which the edge-based phase can mislead.
+ *   The amplitude condition keeps a floating line that merely picks up crosstalk from being called a bridge;
  * - stuck: a channel whose levels are under 0.5 V apart, that is high or low for more than 97% of the
  *   capture, or that switches less than a quarter as often as the other channel (analyze.ts);
  * - informational, not verdicts: duty cycle outside 50 +/- 15% (duty_off), low state above 30% of the
@@ -25,9 +30,9 @@ export const QUADRATURE_TOLERANCE_DEG = 30;
 export const LOW_AMPLITUDE_FRACTION = 0.6;
 /** A low state above this fraction of the sensor supply is reported as raised (informational). */
 export const LOW_LEVEL_RAISED_FRACTION = 0.3;
-/** Channels correlating above this, with a phase under SHORTED_MAX_PHASE_DEG, are shorted together. */
+/** Channels correlating above this, with amplitudes within SHORTED_MAX_AMPLITUDE_RATIO, are shorted together. */
 export const SHORTED_MIN_CORRELATION = 0.95;
-export const SHORTED_MAX_PHASE_DEG = 15;
+export const SHORTED_MAX_AMPLITUDE_RATIO = 1.5;
 /** Nominal duty cycle and the deviation beyond which duty_off is reported, percent. */
 export const DUTY_NOMINAL_PCT = 50;
 export const DUTY_TOLERANCE_PCT = 15;
@@ -105,9 +110,20 @@ export interface VerdictInput {
   /** False when the phase could not be measured (a channel stuck, no paired cycles). */
   phaseMeasured: boolean;
   correlation: number;
+  /** Standard deviation of B over that of A (1 for identical waveforms). */
+  amplitudeRatio: number;
   supplyV: number;
   supplySource: 'given' | 'assumed';
   speedTrend: SpeedTrend | null;
+}
+
+/** True when two channels carry the same waveform (thresholds in the module comment). */
+export function isBridged(correlation: number, amplitudeRatio: number): boolean {
+  return (
+    correlation > SHORTED_MIN_CORRELATION &&
+    amplitudeRatio <= SHORTED_MAX_AMPLITUDE_RATIO &&
+    amplitudeRatio >= 1 / SHORTED_MAX_AMPLITUDE_RATIO
+  );
 }
 
 /** Verdict and the findings behind it (the verdict's own finding first). */
@@ -178,14 +194,13 @@ export function computeVerdict(input: VerdictInput): VerdictResult {
   }
 
   // 2. Channels shorted together (only meaningful when both switch).
-  const shorted =
-    live.length === 2 && input.correlation > SHORTED_MIN_CORRELATION && input.phaseDeg < SHORTED_MAX_PHASE_DEG;
+  const shorted = live.length === 2 && isBridged(input.correlation, input.amplitudeRatio);
   if (shorted) {
     primary.push({
       code: 'channels_shorted',
       channel: null,
       message:
-        `Channels A and B carry the same waveform (correlation ${input.correlation.toFixed(3)}, phase ${deg(input.phaseDeg)}): the two signal lines are bridged. ` +
+        `Channels A and B carry the same waveform (correlation ${input.correlation.toFixed(3)}): the two signal lines are bridged. ` +
         'The encoder can no longer give direction or position, so automatic travel and anti-pinch stop working; spikes at the edges are the two sensor outputs fighting each other. ' +
         'Usual cause: water or corrosion bridging the two signal pins in the door harness connector or on the encoder board, less often a chafed harness where the wires touch. ' +
         'Check next: unplug the motor and measure the resistance between the two signal pins on the harness side and on the motor side to find which side is bridged; inspect the connector for moisture and green corrosion; check the door membrane, seals and drain holes before fitting new parts.',
@@ -225,7 +240,7 @@ export function computeVerdict(input: VerdictInput): VerdictResult {
           code: 'dropout',
           channel: k,
           message:
-            `Channel ${NAME[k]} misses ${c.dropouts} pulse${c.dropouts === 1 ? '' : 's'} (a period more than 1.8 times as long as its neighbours). ` +
+            `Channel ${NAME[k]} has ${c.dropouts} dropout${c.dropouts === 1 ? '' : 's'}: missing or broken pulses (a period more than 1.8 times as long as its neighbours, or a pulse cut short). ` +
             'The module loses count, so the window may stop, run short, or lose its automatic mode. ' +
             'Usual cause: an intermittent open in the signal or supply wire (often where the harness flexes between door and body), corroded pins, or water in the motor. ' +
             'Check next: flex the door harness at the hinge while capturing; check the sensor supply for dips; if both channels drop out at the same moments, suspect the shared supply or ground.',

@@ -13,7 +13,7 @@ export const MAX_CAPTURE_FILE_BYTES = 200 * 1024 * 1024;
 /** Read, parse and analyse the capture at `path`; throws CaptureError for a file the analysis cannot use. */
 export async function analyzeCaptureFile(path: string, opts: AnalyzeOptions = {}): Promise<TraceAnalysis> {
   const info = await stat(path);
-  if (!info.isFile()) throw new CaptureError(`${path} is not a file`);
+  if (!info.isFile()) throw new CaptureError('not a file');
   if (info.size > MAX_CAPTURE_FILE_BYTES) {
     throw new CaptureError(
       `the file is ${(info.size / 1048576).toFixed(0)} MB; captures up to ${MAX_CAPTURE_FILE_BYTES / 1048576} MB are read`,
