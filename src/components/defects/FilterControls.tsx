@@ -33,7 +33,7 @@ export function SearchBox({ value, onChange, label, placeholder }: { value: stri
     return () => clearTimeout(t);
   }, [text]);
   return (
-    <div className="min-w-[14rem] flex-[2_1_16rem]">
+    <div className="min-w-[14rem] flex-[2_1_14rem]">
       <label htmlFor={id} className="field-label">
         {label}
       </label>
@@ -125,7 +125,12 @@ export function ChipGroup({
     if (next.has(v)) next.delete(v);
     else next.add(v);
     // Keep the option order, so the URL (and the query key) does not depend on click order.
-    onChange(options.filter((o) => next.has(o.value)).map((o) => o.value).join(','));
+    onChange(
+      options
+        .filter((o) => next.has(o.value))
+        .map((o) => o.value)
+        .join(','),
+    );
   };
   return (
     <fieldset className="min-w-0">

@@ -10,7 +10,8 @@ import { DataTable } from '@/components/ui/DataTable';
 import { PARKING_LABELS } from '@/components/labels';
 import { PageSizeSelect, SearchBox, SelectField, pageOf, pageSizeOf } from '@/components/defects/FilterControls';
 import { formatCount } from '@/components/defects/format';
-import { VEHICLE_STATUS_LABELS, vehicleColumns } from './columns';
+import { useContainerWidth } from '@/components/defects/use-container-width';
+import { VEHICLE_STATUS_LABELS, VEHICLE_WIDE_MIN_PX, vehicleColumns, vehicleColumnsCompact } from './columns';
 import { pickVehicleParams, useDepotOptions, useVehicles } from './queries';
 
 type Props = {
@@ -28,6 +29,8 @@ function VehicleList({ initialParams }: Props) {
   const params = useMemo(() => pickVehicleParams({ ...state, page: String(page), pageSize: String(pageSize), sort }), [state, page, pageSize, sort]);
   const list = useVehicles(params);
   const depots = useDepotOptions();
+  const [boxRef, width] = useContainerWidth<HTMLDivElement>();
+  const columns = width !== null && width < VEHICLE_WIDE_MIN_PX ? vehicleColumnsCompact : vehicleColumns;
 
   // The API has no list of makes; gather the ones seen so far (and keep the chosen one) for the picker.
   const [makesSeen, setMakesSeen] = useState<string[]>(() => (state.make ? [state.make] : []));
@@ -40,35 +43,59 @@ function VehicleList({ initialParams }: Props) {
     });
   }, [items]);
 
+  // A page past the end (a shared link after the list shrank): go to the last page instead of showing nothing.
+  const lastPage = list.data ? Math.max(1, Math.ceil(list.data.total / pageSize)) : 1;
+  useEffect(() => {
+    if (list.data && !list.isPlaceholderData && list.data.items.length === 0 && list.data.total > 0 && page > lastPage)
+      update({ page: String(lastPage) }, false);
+  }, [list.data, list.isPlaceholderData, page, lastPage, update]);
+
   const onSearch = useCallback((q: string) => update({ q }), [update]);
   const filtered = FILTER_KEYS.some((k) => state[k]);
   const total = list.data?.total ?? 0;
   const depotOptions = (depots.data ?? []).map((d) => ({ value: d.code, label: `${d.code} · ${d.name}` }));
 
   return (
-    <div className="space-y-3">
+    <div className="space-y-3" ref={boxRef}>
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1>Vehicles</h1>
           <p className="text-sm text-ink-500" aria-live="polite">
-            {list.data ? `${formatCount(total)} ${total === 1 ? 'vehicle' : 'vehicles'}${filtered ? ' match these filters' : ' in your depots'}` : 'Loading vehicles…'}
+            {list.data
+              ? `${formatCount(total)} ${total === 1 ? 'vehicle' : 'vehicles'}${filtered ? (total === 1 ? ' matches these filters' : ' match these filters') : ' in your depots'}`
+              : 'Loading vehicles…'}
           </p>
         </div>
         <PageSizeSelect value={pageSize} onChange={(n) => update({ pageSize: String(n) })} />
       </div>
 
       <form className="card card-pad flex flex-wrap items-end gap-3" role="search" aria-label="Filter vehicles" onSubmit={(e) => e.preventDefault()}>
-        <SearchBox label="Search" placeholder="Fleet no., VIN, registration, make or model" value={state.q ?? ''} onChange={onSearch} />
+        <SearchBox label="Search" placeholder="Fleet no., VIN, registration, make" value={state.q ?? ''} onChange={onSearch} />
         {depotOptions.length > 1 && (
-          <SelectField label="Depot" value={state.depot ?? ''} onChange={(depot) => update({ depot })} options={depotOptions} anyLabel="All depots" className="min-w-[11rem] flex-[1_1_11rem]" />
+          <SelectField
+            label="Depot"
+            value={state.depot ?? ''}
+            onChange={(depot) => update({ depot })}
+            options={depotOptions}
+            anyLabel="All depots"
+            className="min-w-[11rem] flex-[1_1_11rem]"
+          />
         )}
         <SelectField
           label="Status"
           value={state.status ?? ''}
           onChange={(status) => update({ status })}
-          options={(['active', 'off_road', 'retired'] as const).map((s) => ({ value: s, label: s === 'active' ? 'In service (incl. off road)' : VEHICLE_STATUS_LABELS[s] }))}
+          options={(['active', 'off_road', 'retired'] as const).map((s) => ({
+            value: s,
+            label: s === 'active' ? 'In service (incl. off road)' : VEHICLE_STATUS_LABELS[s],
+          }))}
         />
-        <SelectField label="Parking" value={state.parking ?? ''} onChange={(parking) => update({ parking })} options={Object.entries(PARKING_LABELS).map(([value, label]) => ({ value, label }))} />
+        <SelectField
+          label="Parking"
+          value={state.parking ?? ''}
+          onChange={(parking) => update({ parking })}
+          options={Object.entries(PARKING_LABELS).map(([value, label]) => ({ value, label }))}
+        />
         <SelectField label="Make" value={state.make ?? ''} onChange={(make) => update({ make })} options={makesSeen.map((m) => ({ value: m, label: m }))} />
         {filtered && (
           <button type="button" className="btn-ghost" onClick={() => update(Object.fromEntries(FILTER_KEYS.map((k) => [k, undefined])))}>
@@ -79,7 +106,7 @@ function VehicleList({ initialParams }: Props) {
 
       <DataTable
         caption="Vehicles"
-        columns={vehicleColumns}
+        columns={columns}
         data={list.data?.items ?? []}
         total={total}
         page={page}

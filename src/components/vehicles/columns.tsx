@@ -17,94 +17,159 @@ export const VEHICLE_STATUS_BADGE: Record<VehicleStatus, string> = {
 
 const vehicleHref = (vin: string) => `/vehicles/${encodeURIComponent(vin)}`;
 
-export const vehicleColumns: ColumnDef<VehicleRow>[] = [
-  {
-    id: 'fleetNumber',
-    header: 'Fleet no.',
-    meta: { sortField: 'fleetNumber', className: 'whitespace-nowrap' },
-    cell: ({ row }) => (
-      <a className="link inline-block py-1" href={vehicleHref(row.original.vin)}>
-        {row.original.fleetNumber ?? '(no number)'}
+const fleetNo: ColumnDef<VehicleRow> = {
+  id: 'fleetNumber',
+  header: 'Fleet no.',
+  meta: { sortField: 'fleetNumber', className: 'whitespace-nowrap' },
+  cell: ({ row }) => (
+    <a className="link" href={vehicleHref(row.original.vin)}>
+      {row.original.fleetNumber ?? '(no number)'}
+    </a>
+  ),
+};
+
+const vin: ColumnDef<VehicleRow> = {
+  id: 'vin',
+  header: 'VIN',
+  meta: { sortField: 'vin' },
+  cell: ({ row }) => (
+    <a className="mono text-ink-700 hover:text-estuary-700 hover:underline" href={vehicleHref(row.original.vin)}>
+      {row.original.vin}
+    </a>
+  ),
+};
+
+const registration: ColumnDef<VehicleRow> = {
+  id: 'registration',
+  header: 'Reg. no.',
+  meta: { sortField: 'registration', className: 'whitespace-nowrap' },
+  cell: ({ row }) => row.original.registration ?? '–',
+};
+
+const makeModel: ColumnDef<VehicleRow> = {
+  id: 'makeModel',
+  header: 'Make / model',
+  meta: { sortField: 'make' },
+  cell: ({ row }) => (
+    <div className="leading-tight whitespace-nowrap">
+      <div>{row.original.make ?? '–'}</div>
+      <div className="text-xs text-ink-500">{row.original.model ?? ''}</div>
+    </div>
+  ),
+};
+
+const built: ColumnDef<VehicleRow> = {
+  id: 'buildMonth',
+  header: 'Built',
+  meta: { sortField: 'buildDate', className: 'whitespace-nowrap' },
+  cell: ({ row }) => formatBuildMonth(row.original.buildMonth),
+};
+
+const inService: ColumnDef<VehicleRow> = {
+  id: 'inServiceDate',
+  header: 'In service',
+  meta: { sortField: 'inServiceDate', className: 'whitespace-nowrap' },
+  cell: ({ row }) => formatCalendarDate(row.original.inServiceDate),
+};
+
+const depot: ColumnDef<VehicleRow> = {
+  id: 'depot',
+  header: 'Depot',
+  meta: { sortField: 'depot' },
+  cell: ({ row }) => <span title={row.original.depotName}>{row.original.depotCode}</span>,
+};
+
+const parking: ColumnDef<VehicleRow> = {
+  id: 'parking',
+  header: 'Parking',
+  meta: { sortField: 'parking' },
+  cell: ({ row }) => PARKING_LABELS[row.original.parking] ?? row.original.parking,
+};
+
+const washes: ColumnDef<VehicleRow> = {
+  id: 'washesPerMonth',
+  header: 'Washes / mo',
+  meta: { sortField: 'washesPerMonth', align: 'right' },
+  cell: ({ row }) => row.original.washesPerMonth,
+};
+
+const openDefects: ColumnDef<VehicleRow> = {
+  id: 'openDefects',
+  header: 'Open defects',
+  meta: { sortField: 'openDefects', align: 'right' },
+  cell: ({ row }) => {
+    const n = row.original.openDefects;
+    return n > 0 ? (
+      <a
+        className="badge-amber hover:underline"
+        href={`/defects?vin=${encodeURIComponent(row.original.vin)}&open=1`}
+        title={`${n} open of ${row.original.defects} recorded`}
+      >
+        {n}
       </a>
-    ),
+    ) : (
+      <span className="text-ink-400" title={`${row.original.defects} recorded, none open`}>
+        0
+      </span>
+    );
   },
+};
+
+const status: ColumnDef<VehicleRow> = {
+  id: 'status',
+  header: 'Status',
+  cell: ({ row }) => <span className={VEHICLE_STATUS_BADGE[row.original.status]}>{VEHICLE_STATUS_LABELS[row.original.status]}</span>,
+};
+
+/** One column per field, for wide screens. */
+export const vehicleColumns: ColumnDef<VehicleRow>[] = [fleetNo, vin, registration, makeModel, built, inService, depot, parking, washes, openDefects, status];
+
+/** Narrow screens (tablet portrait, or a laptop with the side navigation): related fields share a cell. */
+export const vehicleColumnsCompact: ColumnDef<VehicleRow>[] = [
   {
-    id: 'vin',
-    header: 'VIN',
-    meta: { sortField: 'vin' },
-    cell: ({ row }) => (
-      <a className="mono text-ink-700 hover:text-estuary-700 hover:underline" href={vehicleHref(row.original.vin)}>
-        {row.original.vin}
-      </a>
-    ),
-  },
-  {
-    id: 'registration',
-    header: 'Registration',
-    meta: { sortField: 'registration', className: 'whitespace-nowrap' },
-    cell: ({ row }) => row.original.registration ?? '–',
-  },
-  {
-    id: 'makeModel',
-    header: 'Make / model',
-    meta: { sortField: 'make' },
+    id: 'vehicle',
+    header: 'Vehicle',
+    meta: { sortField: 'fleetNumber' },
     cell: ({ row }) => {
       const v = row.original;
       return (
-        <span className="whitespace-nowrap">
-          {v.make ?? '–'} <span className="text-ink-500">{v.model ?? ''}</span>
-        </span>
+        <div className="leading-tight whitespace-nowrap">
+          <a className="link" href={vehicleHref(v.vin)}>
+            {v.fleetNumber ?? '(no number)'}
+          </a>
+          {v.registration && <span className="ml-2 text-ink-600">{v.registration}</span>}
+          <div className="mono mt-0.5 text-xs text-ink-500">{v.vin}</div>
+        </div>
       );
     },
   },
+  makeModel,
   {
-    id: 'buildMonth',
-    header: 'Built',
-    meta: { sortField: 'buildDate', className: 'whitespace-nowrap' },
-    cell: ({ row }) => formatBuildMonth(row.original.buildMonth),
+    id: 'built',
+    header: 'Built / in service',
+    meta: { sortField: 'buildDate' },
+    cell: ({ row }) => (
+      <div className="leading-tight whitespace-nowrap">
+        <div>{formatBuildMonth(row.original.buildMonth)}</div>
+        <div className="text-xs text-ink-500">{formatCalendarDate(row.original.inServiceDate)}</div>
+      </div>
+    ),
   },
   {
-    id: 'inServiceDate',
-    header: 'In service',
-    meta: { sortField: 'inServiceDate', className: 'whitespace-nowrap' },
-    cell: ({ row }) => formatCalendarDate(row.original.inServiceDate),
-  },
-  {
-    id: 'depot',
-    header: 'Depot',
+    id: 'depotParking',
+    header: 'Depot / parking',
     meta: { sortField: 'depot' },
-    cell: ({ row }) => <span title={row.original.depotName}>{row.original.depotCode}</span>,
+    cell: ({ row }) => (
+      <div className="leading-tight whitespace-nowrap">
+        <div title={row.original.depotName}>{row.original.depotCode}</div>
+        <div className="text-xs text-ink-500">{PARKING_LABELS[row.original.parking] ?? row.original.parking}</div>
+      </div>
+    ),
   },
-  {
-    id: 'parking',
-    header: 'Parking',
-    meta: { sortField: 'parking' },
-    cell: ({ row }) => PARKING_LABELS[row.original.parking] ?? row.original.parking,
-  },
-  {
-    id: 'washesPerMonth',
-    header: 'Washes / mo',
-    meta: { sortField: 'washesPerMonth', align: 'right' },
-    cell: ({ row }) => row.original.washesPerMonth,
-  },
-  {
-    id: 'openDefects',
-    header: 'Open defects',
-    meta: { sortField: 'openDefects', align: 'right' },
-    cell: ({ row }) => {
-      const n = row.original.openDefects;
-      return n > 0 ? (
-        <a className="badge-amber hover:underline" href={`/defects?vin=${encodeURIComponent(row.original.vin)}&open=1`} title={`${n} open of ${row.original.defects} recorded`}>
-          {n}
-        </a>
-      ) : (
-        <span className="text-ink-400" title={`${row.original.defects} recorded, none open`}>0</span>
-      );
-    },
-  },
-  {
-    id: 'status',
-    header: 'Status',
-    cell: ({ row }) => <span className={VEHICLE_STATUS_BADGE[row.original.status]}>{VEHICLE_STATUS_LABELS[row.original.status]}</span>,
-  },
+  { ...washes, header: 'Washes' },
+  { ...openDefects, header: 'Open' },
+  status,
 ];
+
+/** Container width (px) from which the one-field-per-column layout fits. */
+export const VEHICLE_WIDE_MIN_PX = 1060;

@@ -1,0 +1,74 @@
+import { describe, expect, it } from 'vitest';
+import { formatBuildMonth, formatCalendarDate, formatInstant, formatInstantDate, formatMinutes, formatMoneyMinor, plural } from './format';
+import { pageOf, pageSizeOf, splitList } from './FilterControls';
+import { pickDefectParams } from './queries';
+
+describe('formatCalendarDate / formatBuildMonth', () => {
+  it('formats calendar dates without shifting them by a time zone', () => {
+    expect(formatCalendarDate('2021-11-02')).toBe('02 Nov 2021');
+    expect(formatCalendarDate('2024-01-01')).toBe('01 Jan 2024');
+    expect(formatCalendarDate('2021-11')).toBe('Nov 2021');
+    expect(formatCalendarDate(null)).toBe('–');
+    expect(formatCalendarDate('not a date')).toBe('not a date');
+  });
+  it('formats build months', () => {
+    expect(formatBuildMonth('2023-02')).toBe('Feb 2023');
+    expect(formatBuildMonth('2023-02-24')).toBe('Feb 2023');
+    expect(formatBuildMonth('')).toBe('–');
+  });
+});
+
+describe('formatInstant', () => {
+  it('shows an instant in the depot time zone', () => {
+    // 10:29 UTC on 6 Nov 2026 is 10:29 in London (GMT) and 11:29 in Berlin (CET).
+    expect(formatInstant('2026-11-06T10:29:00.000Z', 'Europe/London')).toBe('06 Nov 2026, 10:29');
+    expect(formatInstant('2026-11-06T10:29:00.000Z', 'Europe/Berlin')).toBe('06 Nov 2026, 11:29');
+    // 23:30 UTC on 30 Jun is already 1 Jul in London (BST, UTC+1).
+    expect(formatInstantDate('2026-06-30T23:30:00.000Z', 'Europe/London')).toBe('01 Jul 2026');
+    expect(formatInstant(null)).toBe('–');
+  });
+});
+
+describe('formatMoneyMinor / formatMinutes / plural', () => {
+  it('formats minor units with two decimals', () => {
+    expect(formatMoneyMinor(29640)).toBe('296.40');
+    expect(formatMoneyMinor(5)).toBe('0.05');
+    expect(formatMoneyMinor(123456789)).toBe('1,234,567.89');
+    expect(formatMoneyMinor(29640, 'GBP')).toBe('296.40 GBP');
+    expect(formatMoneyMinor(null)).toBe('–');
+  });
+  it('formats minutes', () => {
+    expect(formatMinutes(118)).toBe('1 h 58 min');
+    expect(formatMinutes(45)).toBe('45 min');
+    expect(formatMinutes(120)).toBe('2 h 0 min');
+    expect(formatMinutes(null)).toBe('–');
+  });
+  it('pluralises', () => {
+    expect(plural(1, 'defect')).toBe('1 defect');
+    expect(plural(0, 'defect')).toBe('0 defects');
+    expect(plural(1200, 'defect')).toBe('1,200 defects');
+  });
+});
+
+describe('URL state helpers', () => {
+  it('reads page and page size defensively', () => {
+    expect(pageOf(undefined)).toBe(1);
+    expect(pageOf('3')).toBe(3);
+    expect(pageOf('0')).toBe(1);
+    expect(pageOf('2.5')).toBe(1);
+    expect(pageOf('x')).toBe(1);
+    expect(pageSizeOf('100')).toBe(100);
+    expect(pageSizeOf('37')).toBe(50);
+    expect(pageSizeOf(undefined, 25)).toBe(25);
+  });
+  it('splits comma lists', () => {
+    expect(splitList('reported,diagnosing')).toEqual(['reported', 'diagnosing']);
+    expect(splitList('')).toEqual([]);
+    expect(splitList(',FL,')).toEqual(['FL']);
+  });
+  it('keeps only list parameters, in a fixed order', () => {
+    const p = pickDefectParams({ status: 'closed', foo: 'bar', page: '2', q: '', depot: 'GHQ' });
+    expect(p).toEqual({ page: '2', depot: 'GHQ', status: 'closed' });
+    expect(Object.keys(p)).toEqual(['page', 'depot', 'status']);
+  });
+});
