@@ -5,7 +5,7 @@
 import { and, eq, gte, inArray, lte, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
-import { defects, depots, modules, users, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
+import { defectParts, defects, depots, modules, users, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
 import type { DefectListQuery, ListResponse } from '@/lib/contracts/lists';
 import { cellsFromObject, validateRecord } from '@/lib/imports/rows';
 import { describeDtc, parseDtc } from '@/lib/dtc/dtc';
@@ -217,6 +217,11 @@ export function getDefect(user: SessionUser, id: number) {
     drainCondition: d.drainCondition,
     connectorCondition: d.connectorCondition,
     notes: d.notes,
+    parts: db
+      .select({ partNumber: defectParts.partNumber, description: defectParts.description, quantity: defectParts.quantity, unitCostMinor: defectParts.unitCostMinor })
+      .from(defectParts)
+      .where(eq(defectParts.defectId, d.id))
+      .all(),
     reportedBy: name(d.reportedById),
     assignedTo: name(d.assignedToId),
     verification: d.verifiedAt

@@ -368,7 +368,7 @@ export function updateVehicle(user: SessionUser, vin: string, body: Record<strin
       const off = body.offRoad === true || body.offRoad === 'true' || body.offRoad === 1;
       const was = current.status === 'off_road';
       if (off !== was) {
-        tx.update(vehicles).set({ offRoadSinceAt: off ? Date.now() : null, updatedAt: Date.now() }).where(eq(vehicles.id, current.id)).run();
+        tx.update(vehicles).set({ offRoadSinceAt: off ? Date.now() : null, version: sql`${vehicles.version} + 1`, updatedAt: Date.now() }).where(eq(vehicles.id, current.id)).run();
         writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'update', field: 'offRoad', oldValue: String(was), newValue: String(off) });
       }
     }

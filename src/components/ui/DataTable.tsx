@@ -53,7 +53,7 @@ export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSor
                       {meta?.sortField ? (
                         <button
                           type="button"
-                          className="inline-flex items-center gap-1 uppercase hover:text-ink-900"
+                          className="inline-flex min-h-10 items-center gap-1 uppercase hover:text-ink-900"
                           onClick={() => onSort(active && !desc ? `-${meta.sortField}` : meta.sortField!)}
                         >
                           {flexRender(h.column.columnDef.header, h.getContext())}
@@ -95,14 +95,14 @@ export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSor
       </div>
       <div className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-200 bg-ink-50 px-3 py-2 text-sm">
         <span className="text-ink-600" aria-live="polite">
-          {loading ? 'Loading…' : `${from.toLocaleString('en-GB')}–${to.toLocaleString('en-GB')} of ${total.toLocaleString('en-GB')}`}
+          {loading ? 'Loading…' : total === 0 ? 'No rows' : `${from.toLocaleString('en-GB')}–${to.toLocaleString('en-GB')} of ${total.toLocaleString('en-GB')}`}
         </span>
         <div className="flex items-center gap-1">
-          <button type="button" className="btn-ghost min-h-9 px-2.5" disabled={page <= 1} onClick={() => onPage(1)} aria-label="First page">«</button>
-          <button type="button" className="btn-ghost min-h-9 px-2.5" disabled={page <= 1} onClick={() => onPage(page - 1)}>Previous</button>
+          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(1)} aria-label="First page">«</button>
+          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(page - 1)}>Previous</button>
           <span className="px-2 text-ink-600">Page {page} of {pages.toLocaleString('en-GB')}</span>
-          <button type="button" className="btn-ghost min-h-9 px-2.5" disabled={page >= pages} onClick={() => onPage(page + 1)}>Next</button>
-          <button type="button" className="btn-ghost min-h-9 px-2.5" disabled={page >= pages} onClick={() => onPage(pages)} aria-label="Last page">»</button>
+          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(page + 1)}>Next</button>
+          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(pages)} aria-label="Last page">»</button>
         </div>
       </div>
     </div>
