@@ -1,0 +1,69 @@
+// Signing in through the real form for every demo role, a wrong password, and signing out.
+import { describe, expect, it } from 'vitest';
+import { baseUrl, demoUser, open, pathOf, signIn, useBrowser, type Role } from './fixtures';
+
+const h = useBrowser();
+
+// What each role sees in the side navigation and under its name (CONTRACT.md "Who may do what":
+// Import for admins and fleet managers, People for admins only).
+const BASE_NAV = ['Overview', 'Defects', 'Vehicles', 'Depots', 'Modules'];
+const EXPECTED: Record<Role, { label: string; nav: string[] }> = {
+  admin: { label: 'Admin', nav: [...BASE_NAV, 'Import', 'People'] },
+  manager: { label: 'Fleet manager', nav: [...BASE_NAV, 'Import'] },
+  supervisor: { label: 'Depot supervisor', nav: BASE_NAV },
+  technician: { label: 'Technician', nav: BASE_NAV },
+  viewer: { label: 'Viewer', nav: BASE_NAV },
+};
+
+describe('sign-in form', () => {
+  for (const role of Object.keys(EXPECTED) as Role[]) {
+    it(`${role} signs in and lands on the Overview with the navigation of the role`, async () => {
+      const page = h.page;
+      await h.context.clearCookies();
+      await signIn(page, role);
+      await page.waitForURL(`${baseUrl()}/`);
+      await page.getByRole('heading', { level: 1, name: 'Overview' }).waitFor();
+
+      const { name } = demoUser(role);
+      await page.getByText(name, { exact: true }).filter({ visible: true }).first().waitFor();
+      await page.getByText(EXPECTED[role].label, { exact: true }).filter({ visible: true }).first().waitFor();
+
+      const nav = page.getByRole('navigation', { name: 'Main' });
+      const links = (await nav.getByRole('link').allTextContents()).map((t) => t.trim());
+      expect(links).toEqual(EXPECTED[role].nav);
+      expect(await nav.getByRole('link', { name: 'Overview' }).getAttribute('aria-current')).toBe('page');
+    });
+  }
+
+  it('a wrong password shows the error and stays on /signin', async () => {
+    const page = h.page;
+    await h.context.clearCookies();
+    await signIn(page, 'viewer', 'not-the-password');
+    await page.waitForURL((u) => u.pathname === '/signin' && u.searchParams.has('error'));
+    const alert = page.getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.textContent()).toContain('That e-mail and password do not match an active account');
+    // Still the form, not signed in.
+    await page.getByRole('button', { name: 'Sign in' }).waitFor();
+    const me = await page.request.get(`${baseUrl()}/api/me`);
+    expect(me.status()).toBe(401);
+  });
+
+  it('signing out returns to /signin, and pages then send you to /signin', async () => {
+    const page = h.page;
+    await h.context.clearCookies();
+    await signIn(page, 'technician');
+    await page.waitForURL(`${baseUrl()}/`);
+
+    await open(page, '/signout');
+    await page.getByRole('heading', { level: 1, name: 'Sign out' }).waitFor();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((u) => u.pathname === '/signin');
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+
+    await open(page, '/vehicles');
+    expect(new URL(page.url()).pathname).toBe('/signin');
+    expect(pathOf(page)).toContain('vehicles');
+    expect((await page.request.get(`${baseUrl()}/api/me`)).status()).toBe(401);
+  });
+});
