@@ -137,7 +137,7 @@ export const vehicleColumnsCompact: ColumnDef<VehicleRow>[] = [
           <a className="link" href={vehicleHref(v.vin)}>
             {v.fleetNumber ?? '(no number)'}
           </a>
-          {v.registration && <span className="ml-2 text-ink-600">{v.registration}</span>}
+          {v.registration && <span className="ml-2 text-ink-600">{" "}{v.registration}</span>}
           <div className="mono mt-0.5 text-xs text-ink-500">{v.vin}</div>
         </div>
       );
