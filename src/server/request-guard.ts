@@ -9,7 +9,7 @@ import type { SessionUser } from './auth';
 import { errorResponse, forbidden, unauthenticated } from './http';
 import { loadSessionUser, userForToken } from './users';
 
-/** Reads the session's user id from the request (auth-astro in production, a stub in tests). */
+/** Reads the session's user id from the request (auth-astro in production, a fixed reader in tests). */
 export type SessionReader = (request: Request) => Promise<{ user?: { id?: string } } | null>;
 
 const PUBLIC_PAGES = new Set(['/signin', '/signout']);

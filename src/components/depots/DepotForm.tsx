@@ -3,7 +3,7 @@ import { useId, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from './FormField';
+import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from '@/components/ui/FormField';
 import { useSaveDepot, type Depot, type DepotInput } from './queries';
 
 /** A number typed as text: optional or required, within [min, max], whole when `integer`. */

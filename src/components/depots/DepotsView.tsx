@@ -6,7 +6,7 @@ import { queryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
 import { can, type Role } from '@/lib/auth/permissions';
 import { DataTable } from '@/components/ui/DataTable';
-import { ConfirmDialog, Dialog } from './Dialog';
+import { ConfirmDialog, Dialog } from '@/components/ui/Dialog';
 import { DepotForm } from './DepotForm';
 import { depotColumns } from './columns';
 import { useDeleteDepot, useDepots, type Depot } from './queries';

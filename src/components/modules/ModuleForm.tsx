@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { FUNCTION_LABELS } from '@/components/labels';
-import { applyServerIssues, fieldAria, FormError, FormField } from '@/components/depots/FormField';
+import { applyServerIssues, fieldAria, FormError, FormField } from '@/components/ui/FormField';
 import { MODULE_FUNCTIONS, useSaveModule, type ModuleType } from './queries';
 
 const ModuleFormSchema = z.object({

@@ -7,7 +7,7 @@ import { useUrlState } from '@/lib/client/url-state';
 import { can, type Role } from '@/lib/auth/permissions';
 import { FUNCTION_LABELS } from '@/components/labels';
 import { DataTable } from '@/components/ui/DataTable';
-import { ConfirmDialog, Dialog } from '@/components/depots/Dialog';
+import { ConfirmDialog, Dialog } from '@/components/ui/Dialog';
 import { ModuleForm } from './ModuleForm';
 import { moduleColumns } from './columns';
 import { MODULE_FUNCTIONS, useDeleteModule, useModules, type ModuleType } from './queries';

@@ -7,7 +7,7 @@ import { Controller, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { ROLE_LABELS, ROLE_VALUES, type Role } from '@/lib/auth/permissions';
-import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from '@/components/depots/FormField';
+import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from '@/components/ui/FormField';
 import { useAllDepots } from '@/components/depots/queries';
 import { useCreatePerson, useUpdatePerson, type Person, type PersonChange } from './queries';
 

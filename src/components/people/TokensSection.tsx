@@ -9,8 +9,8 @@ import { z } from 'zod';
 import { Check, Copy, Plus } from 'lucide-react';
 import { ROLE_LABELS } from '@/lib/auth/permissions';
 import { DataTable } from '@/components/ui/DataTable';
-import { ConfirmDialog, Dialog } from '@/components/depots/Dialog';
-import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from '@/components/depots/FormField';
+import { ConfirmDialog, Dialog } from '@/components/ui/Dialog';
+import { applyServerIssues, CheckRow, fieldAria, FormError, FormField } from '@/components/ui/FormField';
 import { sortRows, tokenColumns, tokenSortValue } from './columns';
 import { useCreateToken, useRevokeToken, useTokens, type ApiToken, type NewToken, type Person } from './queries';
 
