@@ -19,7 +19,7 @@
  * A capture whose switching channels hold fewer than two full periods throws CaptureError (line null).
  */
 import { CaptureError, type CaptureData } from './capture-parse';
-import { edgesOfPolarity } from './crossings';
+import { edgesOfPolarity, type EdgeTrain } from './crossings';
 import {
   DROPOUT_PERIOD_RATIO,
   GLITCH_FRACTION,
@@ -131,6 +131,18 @@ export interface TraceAnalysis {
 
 /** Analyse a two-channel hall-sensor capture (time in seconds, channels in volts). */
 export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}): TraceAnalysis {
+  return analyzeCaptureDetail(capture, opts).analysis;
+}
+
+/** The analysis plus the transitions it found on each channel (what a plot marks as edges). */
+export interface TraceAnalysisDetail {
+  analysis: TraceAnalysis;
+  /** Hysteresis-qualified mid-reference transitions of each channel as found (glitch edges included). */
+  edges: { a: EdgeTrain; b: EdgeTrain };
+}
+
+/** analyzeCapture, keeping each channel's transitions for display. */
+export function analyzeCaptureDetail(capture: CaptureData, opts: AnalyzeOptions = {}): TraceAnalysisDetail {
   const { time, a, b } = capture;
   const n = time.length;
   if (a.length !== n || b.length !== n) throw new RangeError('time, a and b must have the same length');
@@ -286,7 +298,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
     noiseV: round(c.noiseV, 4),
     hysteresisV: round(c.hysteresisV, 3),
   });
-  return {
+  const analysis: TraceAnalysis = {
     samples: n,
     sampleRateHz: roundSig(sampleRateHz, 7),
     channels: { a: out(ca), b: out(cb) },
@@ -323,6 +335,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
       speedChangePct: SPEED_CHANGE_PCT,
     },
   };
+  return { analysis, edges: { a: detail.a.raw, b: detail.b.raw } };
 }
 
 /**
