@@ -35,9 +35,9 @@ describe('buildPlotWindow', () => {
     expect(w.b.min[43]).toBe(1);
     expect(Math.max(...(w.b.max as number[]).filter((_, c) => c !== 43))).toBe(1);
     // Column 4 (39.96-49.95 ms) holds samples 40-49, all high (the fall comes after sample 49).
-    expect([w.a.min[4], w.a.max[4]]).toEqual([5, 5]);
+    expect([w.a.min[4], w.a.max![4]]).toEqual([5, 5]);
     // Column 5 (49.95-59.94 ms) holds samples 50-59: low.
-    expect([w.a.min[5], w.a.max[5]]).toEqual([0, 0]);
+    expect([w.a.min[5], w.a.max![5]]).toEqual([0, 0]);
   });
 
   it('returns every sample in the window (raw) when it holds fewer than two per column', () => {

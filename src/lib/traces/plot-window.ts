@@ -144,7 +144,7 @@ export function toLinePoints(window: Pick<PlotWindow, 'mode' | 'timeS'>, series:
       previous = null;
       continue;
     }
-    const highFirst = previous !== null && Math.abs(previous - hi) < Math.abs(previous - lo);
+    const highFirst: boolean = previous !== null && Math.abs(previous - hi) < Math.abs(previous - lo);
     x.push(t[c]!, t[c]!);
     if (highFirst) y.push(hi, lo);
     else y.push(lo, hi);
