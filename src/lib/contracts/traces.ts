@@ -29,7 +29,7 @@ const seconds = (name: string) =>
     .trim()
     .regex(/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/, `${name} must be a time in seconds, e.g. 0.0125`)
     .transform(Number)
-    .pipe(z.number().finite(`${name} must be a finite number of seconds`));
+    .pipe(z.number(`${name} must be a finite number of seconds`));
 
 /** GET /api/traces/{id}/samples?from=&to=&columns= (seconds, seconds, pixel columns). */
 export const TraceSamplesQuery = z
