@@ -16,6 +16,7 @@ import { toLinePoints } from '@/lib/traces/plot-window';
 import type { TraceSamples } from '@/lib/contracts/traces';
 import { useContainerWidth } from '@/components/defects/use-container-width';
 import { CHANNEL_COLOURS } from './labels';
+import { formatSpan } from './format';
 import { useTraceSamples } from './queries';
 
 /** What the plot needs to know about a channel from the analysis. */
@@ -37,6 +38,8 @@ const MIN_WINDOW_SAMPLES = 12;
 /** Wait this long after the last wheel or pinch step before fetching the new window, ms. */
 const COMMIT_DELAY_MS = 180;
 const ZOOM_STEP = 2;
+/** Edges are marked only when there is at least this much room per edge, CSS px. */
+const EDGE_MARK_SPACING_PX = 12;
 const AMBER = '#b07a10';
 const GRID = '#eceef1';
 const AXIS = '#4d5665';
@@ -52,14 +55,6 @@ export default function TracePlot(props: Props) {
 }
 
 type View = { fromS: number | null; toS: number | null };
-
-/** A duration in words for the readout: "12.5 ms", "840 µs", "1.20 s". */
-export function formatSpan(s: number): string {
-  const a = Math.abs(s);
-  if (a >= 1) return `${s.toFixed(a >= 10 ? 1 : 2)} s`;
-  if (a >= 1e-3) return `${(s * 1e3).toFixed(a >= 0.1 ? 0 : a >= 0.01 ? 1 : 2)} ms`;
-  return `${(s * 1e6).toFixed(a >= 1e-4 ? 0 : 1)} µs`;
-}
 
 /** Tick labels on the time axis, in ms, with as many decimals as the tick step needs. */
 function msTicks(splits: number[]): string[] {
@@ -148,10 +143,9 @@ function Plot({ traceId, channels, sampleRateHz, samples }: Props) {
   useEffect(() => {
     if (!data || !width || plots.current || !lanesRef.current) return;
     extent.current = { startS: data.startS, endS: data.endS };
-    yRanges.current = {
-      a: laneRange(channels.a, data.a.min, data.a.max ?? data.a.min),
-      b: laneRange(channels.b, data.b.min, data.b.max ?? data.b.min),
-    };
+    // One y range for both lanes, so their levels compare at a glance (a weak or stuck channel shows as such).
+    const shared = laneRange([channels.a, channels.b], [data.a.min, data.b.min], [data.a.max ?? data.a.min, data.b.max ?? data.b.min]);
+    yRanges.current = { a: shared, b: shared };
     dataRef.current = data;
     const host = lanesRef.current;
     const made: Partial<Record<Key, uPlot>> = {};
@@ -287,7 +281,7 @@ function Plot({ traceId, channels, sampleRateHz, samples }: Props) {
   const full = extent.current;
   const atFull = !shown || !full || (shown.fromS <= full.startS && shown.toS >= full.endS);
   const atMin = !!shown && shown.toS - shown.fromS <= (MIN_WINDOW_SAMPLES / sampleRateHz) * 1.01;
-  const status = useMemo(() => describeWindow(data, shown, full), [data, shown, full]);
+  const status = useMemo(() => describeWindow(data, shown, full, width ?? 0), [data, shown, full, width]);
   const loading = query.isFetching;
 
   return (
@@ -365,6 +359,7 @@ function describeWindow(
   data: TraceSamples | undefined,
   shown: { fromS: number; toS: number } | null,
   full: { startS: number; endS: number } | null,
+  widthCss: number,
 ): { window: string; detail: string } | null {
   if (!data || !shown || !full) return null;
   const whole = shown.fromS <= full.startS && shown.toS >= full.endS;
@@ -376,16 +371,17 @@ function describeWindow(
     data.mode === 'raw'
       ? `Every sample shown (${data.windowSamples.toLocaleString('en-GB')}).`
       : `Each pixel column shows the lowest and highest of about ${Math.round(perColumn).toLocaleString('en-GB')} samples, so edges and short spikes stay visible.`;
-  const edges = data.edges.a.tooMany || data.edges.b.tooMany ? ' Edges are marked once you zoom in.' : '';
+  const markable = (e: TraceSamples['edges']['a']) => !e.tooMany && e.count <= Math.max(0, widthCss - 70) / EDGE_MARK_SPACING_PX;
+  const edges = markable(data.edges.a) && markable(data.edges.b) ? '' : ' Edges are marked once you zoom in.';
   return { window, detail: detail + edges };
 }
 
-/** The y range of a lane: its levels and everything the first window holds, with room for the edge marks. */
-function laneRange(c: PlotChannel, mins: Array<number | null>, maxs: Array<number | null>): [number, number] {
-  let lo = c.lowV;
-  let hi = c.highV;
-  for (const v of mins) if (v !== null && v < lo) lo = v;
-  for (const v of maxs) if (v !== null && v > hi) hi = v;
+/** The y range of the lanes: the channels' levels and everything the first window holds, with room for the edge marks. */
+function laneRange(cs: PlotChannel[], mins: Array<Array<number | null>>, maxs: Array<Array<number | null>>): [number, number] {
+  let lo = Math.min(0, ...cs.map((c) => c.lowV));
+  let hi = Math.max(...cs.map((c) => c.highV));
+  for (const m of mins) for (const v of m) if (v !== null && v < lo) lo = v;
+  for (const m of maxs) for (const v of m) if (v !== null && v > hi) hi = v;
   const span = Math.max(1, hi - lo);
   return [lo - 0.12 * span, hi + 0.22 * span];
 }
@@ -517,14 +513,18 @@ function drawOverlay(u: uPlot, k: Key, c: PlotChannel, w: TraceSamples | null, c
     ctx.lineTo(left + width, y);
     ctx.stroke();
     ctx.setLineDash([]);
-    ctx.fillStyle = AMBER;
+    const label = `50% ${c.midV.toFixed(2)} V`;
     ctx.font = `600 ${11 * px}px "Source Sans 3", ui-sans-serif, sans-serif`;
+    const textW = ctx.measureText(label).width;
+    ctx.fillStyle = 'rgba(255, 255, 255, 0.9)';
+    ctx.fillRect(left + width - textW - 10 * px, y - 15 * px, textW + 8 * px, 13 * px);
+    ctx.fillStyle = AMBER;
     ctx.textAlign = 'right';
     ctx.textBaseline = 'bottom';
-    ctx.fillText(`50% ${c.midV.toFixed(2)} V`, left + width - 4 * px, y - 2 * px);
+    ctx.fillText(label, left + width - 6 * px, y - 2 * px);
   }
   const e = w?.edges[k];
-  if (e && !e.tooMany && e.timesS.length > 0 && e.timesS.length <= width / (5 * px)) {
+  if (e && !e.tooMany && e.timesS.length > 0 && e.timesS.length <= width / (EDGE_MARK_SPACING_PX * px)) {
     const size = 5 * px;
     const yTop = top + 3 * px;
     for (let i = 0; i < e.timesS.length; i++) {

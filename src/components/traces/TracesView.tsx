@@ -104,9 +104,10 @@ function TraceList({ initialParams, canUpload }: Props) {
               onChange={(verdict) => update({ verdict })}
               options={TRACE_VERDICTS.map((v) => ({ value: v, label: VERDICT_LABELS[v] }))}
               anyLabel="Any verdict"
+              className="w-full sm:w-60"
             />
             {(depots.data?.length ?? 0) > 1 && (
-              <SelectField label="Depot" value={state.depot ?? ''} onChange={(depot) => update({ depot })} options={depots.data ?? []} anyLabel="All depots" />
+              <SelectField label="Depot" value={state.depot ?? ''} onChange={(depot) => update({ depot })} options={depots.data ?? []} anyLabel="All depots" className="w-full sm:w-60" />
             )}
             {filtered && (
               <button type="button" className="btn-ghost" onClick={() => update({ verdict: '', depot: '' })}>

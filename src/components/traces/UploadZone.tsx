@@ -99,7 +99,7 @@ export function UploadZone({ defectId, compact = false }: Props) {
       <div className="grid grid-cols-2 gap-3">
         <div>
           <label htmlFor={`${uid}-ppr`} className="field-label">
-            Pulses per revolution <span className="font-normal text-ink-500">(optional)</span>
+            Pulses per revolution
           </label>
           <input
             id={`${uid}-ppr`}
@@ -113,12 +113,12 @@ export function UploadZone({ defectId, compact = false }: Props) {
             onChange={(e) => setPulses(e.target.value)}
           />
           <p id={`${uid}-ppr-help`} className={`mt-1 text-xs ${Number.isNaN(pulsesValue) ? 'font-semibold text-brick-700' : 'text-ink-500'}`}>
-            {Number.isNaN(pulsesValue) ? 'A positive number up to 1000.' : 'Per channel; gives the motor speed in rpm.'}
+            {Number.isNaN(pulsesValue) ? 'A positive number up to 1000.' : 'Optional, per channel: gives the motor speed in rpm.'}
           </p>
         </div>
         <div>
           <label htmlFor={`${uid}-supply`} className="field-label">
-            Sensor supply, V <span className="font-normal text-ink-500">(optional)</span>
+            Sensor supply (V)
           </label>
           <input
             id={`${uid}-supply`}
@@ -132,7 +132,7 @@ export function UploadZone({ defectId, compact = false }: Props) {
             onChange={(e) => setSupply(e.target.value)}
           />
           <p id={`${uid}-supply-help`} className={`mt-1 text-xs ${Number.isNaN(supplyValue) ? 'font-semibold text-brick-700' : 'text-ink-500'}`}>
-            {Number.isNaN(supplyValue) ? 'A positive number of volts up to 1000.' : 'Judges a weak high level; assumed 5 or 12 V when empty.'}
+            {Number.isNaN(supplyValue) ? 'A positive number of volts up to 1000.' : 'Optional: judges a weak high level (5 or 12 V assumed).'}
           </p>
         </div>
       </div>

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatChangePct, formatDeg, formatDuration, formatHz, formatPct, formatRpm, formatSampleRate, formatVolts } from './format';
+import { formatChangePct, formatDeg, formatHz, formatPct, formatRpm, formatSampleRate, formatSpan, formatVolts } from './format';
 
 describe('trace figure formatting', () => {
   it('formats frequencies to four significant digits, switching to kHz', () => {
@@ -13,9 +13,6 @@ describe('trace figure formatting', () => {
     expect(formatSampleRate(1_000_000)).toBe('1 MS/s');
     expect(formatSampleRate(20_480)).toBe('20.5 kS/s');
     expect(formatSampleRate(500)).toBe('500 S/s');
-    expect(formatDuration(0.2)).toBe('200 ms');
-    expect(formatDuration(1.25)).toBe('1.25 s');
-    expect(formatDuration(0.00085)).toBe('850 µs');
     expect(formatVolts(4.9812)).toBe('4.98 V');
     expect(formatPct(49.84)).toBe('49.8%');
     expect(formatPct(NaN)).toBe('–');
@@ -23,5 +20,19 @@ describe('trace figure formatting', () => {
     expect(formatRpm(6000)).toBe('6,000 rpm');
     expect(formatChangePct(-12.5)).toBe('−12.5%');
     expect(formatChangePct(3)).toBe('+3.0%');
+  });
+});
+
+
+describe('formatSpan (plot readout)', () => {
+  it('gives three significant digits in the largest unit that keeps the number at 1 or more', () => {
+    expect(formatSpan(0.2)).toBe('200 ms');
+    expect(formatSpan(0.09999999)).toBe('100 ms');
+    expect(formatSpan(0.05)).toBe('50.0 ms');
+    expect(formatSpan(0.0009999)).toBe('1.00 ms');
+    expect(formatSpan(0.000473)).toBe('473 µs');
+    expect(formatSpan(1.5)).toBe('1.50 s');
+    expect(formatSpan(12.345)).toBe('12.3 s');
+    expect(formatSpan(0)).toBe('0 ms');
   });
 });

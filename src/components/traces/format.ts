@@ -43,16 +43,19 @@ export function formatRpm(rpm: number): string {
   return `${n(rpm, 0)} rpm`;
 }
 
-/** A duration: "200 ms", "1.25 s", "850 µs". */
-export function formatDuration(s: number): string {
-  if (s >= 1) return `${Number(s.toPrecision(3)).toLocaleString('en-GB')} s`;
-  if (s >= 1e-3) return `${Number((s * 1e3).toPrecision(3)).toLocaleString('en-GB')} ms`;
-  return `${Number((s * 1e6).toPrecision(3)).toLocaleString('en-GB')} µs`;
-}
-
 /** Bytes in words: "812 B", "4.2 KB", "48.0 MB". */
 export function formatBytes(b: number): string {
   if (b < 1024) return `${b} B`;
   if (b < 1024 * 1024) return `${(b / 1024).toFixed(1)} KB`;
   return `${(b / 1024 / 1024).toFixed(1)} MB`;
+}
+
+/** A duration in words for the readout, three significant digits: "12.5 ms", "840 µs", "1.20 s", "0 ms". */
+export function formatSpan(s: number): string {
+  if (s === 0) return '0 ms';
+  for (const [scale, unit] of [[1, 's'], [1e3, 'ms'], [1e6, 'µs']] as const) {
+    const text = (s * scale).toPrecision(3);
+    if (Math.abs(Number(text)) >= 1 && !text.includes('e')) return `${text} ${unit}`;
+  }
+  return `${(s * 1e9).toPrecision(3)} ns`;
 }
