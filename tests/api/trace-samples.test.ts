@@ -119,6 +119,15 @@ describe('GET /api/traces/{id}/samples', () => {
     expect(captureCacheStats()).toMatchObject({ entries: 1, misses: 1, hits: 2 });
   });
 
+  it('keeps a capture parsed at upload, so its first plot window needs no read', async () => {
+    clearCaptureCache();
+    const g = generateCapture({ freqHz: 90, sampleRateHz: 20_000, samples: 4_000, seed: 13 });
+    const r = await body(await call(traces, 'POST', '/api/traces', { token: tech, body: form(captureToCsv(g)) }));
+    expect(captureCacheStats()).toMatchObject({ entries: 1, misses: 0 });
+    expect((await get(r.id, '?columns=50', tech)).status).toBe(200);
+    expect(captureCacheStats()).toMatchObject({ entries: 1, misses: 0, hits: 1 });
+  });
+
   it('answers 404 (not 500) when the stored file has gone', async () => {
     const g = generateCapture({ freqHz: 150, sampleRateHz: 30_000, samples: 3_000, seed: 12 });
     const r = await body(await call(traces, 'POST', '/api/traces', { token: tech, body: form(captureToCsv(g)) }));

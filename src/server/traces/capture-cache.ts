@@ -48,12 +48,24 @@ function admit(e: CachedCapture): void {
   }
 }
 
+/** A cache entry for arrays already parsed. */
+function entryOf(sha256: string, capture: CaptureData, edges: { a: EdgeTrain; b: EdgeTrain }): CachedCapture {
+  // The whole buffers: a parsed array may be a view of a larger one.
+  const size = capture.time.buffer.byteLength + capture.a.buffer.byteLength + capture.b.buffer.byteLength + edges.a.timesS.byteLength + edges.b.timesS.byteLength;
+  return { sha256, capture: { time: capture.time, a: capture.a, b: capture.b }, edges, bytes: size };
+}
+
 /** Parse bytes and find their edges (the same analysis as at upload; options do not change the edges). */
 export function prepareCapture(sha256: string, bytes: Uint8Array): CachedCapture {
   const capture = parseCapture(bytes);
-  const { edges } = analyzeCaptureDetail(capture);
-  const size = capture.time.byteLength + capture.a.byteLength + capture.b.byteLength + edges.a.timesS.byteLength + edges.b.timesS.byteLength;
-  return { sha256, capture: { time: capture.time, a: capture.a, b: capture.b }, edges, bytes: size };
+  return entryOf(sha256, capture, analyzeCaptureDetail(capture).edges);
+}
+
+/** Keep a capture parsed elsewhere (at upload), unless it is cached already. */
+export function rememberCapture(sha256: string, capture: CaptureData, edges: { a: EdgeTrain; b: EdgeTrain }): void {
+  const hit = entries.get(sha256);
+  if (hit) touch(hit);
+  else admit(entryOf(sha256, capture, edges));
 }
 
 /**

@@ -11,10 +11,10 @@ import { and, desc, eq, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { attachments, defects, depots, users, vehicles } from '@/db/schema';
 import { uploadDir } from '@/env';
-import { CaptureError, parseCapture } from '@/lib/traces/capture-parse';
-import { analyzeCapture, type AnalyzeOptions, type TraceAnalysis } from '@/lib/traces/analyze';
+import { CaptureError, parseCapture, type CaptureData } from '@/lib/traces/capture-parse';
+import { analyzeCaptureDetail, type AnalyzeOptions, type TraceAnalysis, type TraceAnalysisDetail } from '@/lib/traces/analyze';
 import { buildPlotWindow } from '@/lib/traces/plot-window';
-import { loadCapture } from './capture-cache';
+import { loadCapture, rememberCapture } from './capture-cache';
 import { inScope, requireDepotScope, type SessionUser } from '../auth';
 import { HttpError, invalid, notFound } from '../http';
 import { writeAudit, type Actor } from '../audit';
@@ -25,8 +25,14 @@ export const MAX_TRACE_UPLOAD_BYTES = 96 * 1024 * 1024;
 
 /** Analyse capture bytes; unusable files are a 422 naming the line. */
 export function analyzeBytes(bytes: Uint8Array, opts: AnalyzeOptions): TraceAnalysis {
+  return analyzeBytesDetail(bytes, opts).analysis;
+}
+
+/** analyzeBytes, keeping the parsed capture and its edges (to put straight into the plot cache). */
+function analyzeBytesDetail(bytes: Uint8Array, opts: AnalyzeOptions): TraceAnalysisDetail & { capture: CaptureData } {
   try {
-    return analyzeCapture(parseCapture(bytes), opts);
+    const capture = parseCapture(bytes);
+    return { capture, ...analyzeCaptureDetail(capture, opts) };
   } catch (e) {
     if (e instanceof CaptureError) {
       throw new HttpError(422, 'INVALID_INPUT', `The capture cannot be used: ${e.message}`, [{ path: 'file', message: e.message }]);
@@ -65,9 +71,11 @@ export function storeTrace(user: SessionUser, bytes: Uint8Array, name: string | 
     }
     depotId = d.depotId;
   }
-  const analysis = analyzeBytes(bytes, { pulsesPerRev: opts.pulsesPerRev, supplyV: opts.supplyV });
+  const { analysis, capture, edges } = analyzeBytesDetail(bytes, { pulsesPerRev: opts.pulsesPerRev, supplyV: opts.supplyV });
   const stored: StoredAnalysis = { ...analysis, pulsesPerRev: opts.pulsesPerRev ?? null };
   const { sha256, storedPath } = writeCaptureFile(bytes);
+  // The trace page asks for the plot right after the upload: hand it the arrays already parsed.
+  rememberCapture(sha256, capture, edges);
   const id = db.transaction((tx) => {
     const row = tx
       .insert(attachments)
