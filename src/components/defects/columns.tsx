@@ -35,7 +35,12 @@ export function MoistureBadge({ value }: { value: string | null }) {
 export function RepeatBadge({ d, withRef = false }: { d: Pick<DefectRow, 'repeat' | 'repeatOfId' | 'repeatOfRef'>; withRef?: boolean }) {
   if (!d.repeat || d.repeatOfId === null) return null;
   return (
-    <a className="badge-brick hover:underline" href={defectHref(d.repeatOfId)} aria-label={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}>
+    <a
+      className="badge-brick hover:underline"
+      href={defectHref(d.repeatOfId)}
+      aria-label={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}
+      title={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}
+    >
       Repeat
       {withRef && d.repeatOfRef ? <span className="mono font-normal">of {d.repeatOfRef}</span> : null}
     </a>
@@ -132,7 +137,7 @@ const moisture: ColumnDef<DefectRow> = {
 const repeat: ColumnDef<DefectRow> = {
   id: 'repeat',
   header: 'Repeat',
-  cell: ({ row }) => <RepeatBadge d={row.original} />,
+  cell: ({ row }) => <RepeatBadge d={row.original} withRef />,
 };
 
 /** A defect status as its badge. */
