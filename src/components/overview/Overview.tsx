@@ -74,7 +74,7 @@ function DefectShortList({ rows, caption, empty }: { rows: OverviewDefect[]; cap
             <th>Ref</th>
             <th>Vehicle</th>
             <th>Door / module</th>
-            <th className="hidden md:table-cell">Symptom</th>
+            <th className="hidden lg:table-cell">Symptom</th>
             <th>Status</th>
             <th className="text-right">Open for</th>
           </tr>
@@ -102,7 +102,7 @@ function DefectShortList({ rows, caption, empty }: { rows: OverviewDefect[]; cap
                 </abbr>{' '}
                 <span className="text-ink-500">{d.moduleCode}</span>
               </td>
-              <td className="hidden max-w-[18rem] truncate md:table-cell" title={d.symptom ?? undefined}>
+              <td className="hidden max-w-[18rem] truncate lg:table-cell" title={d.symptom ?? undefined}>
                 {d.symptom ?? <span className="text-ink-400">–</span>}
               </td>
               <td>
@@ -135,8 +135,7 @@ function CountLink({ n, href, label }: { n: number; href: string; label: string 
 }
 
 function OverviewBody({ initial, scopeText, canReport }: Props) {
-  const { data } = useOverview(initial);
-  const o = data ?? initial;
+  const o = useOverview(initial);
   const manages = o.role === 'manager' || o.role === 'admin';
   const since = o.windowFrom;
   const asOf = formatInstantDate(o.asOf, 'UTC');

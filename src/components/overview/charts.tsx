@@ -10,7 +10,7 @@ import { STATUS_LABELS } from '@/components/labels';
 import { useContainerWidth } from '@/components/defects/use-container-width';
 import { OPEN_STATUSES, type OpenStatus, type OverviewDepot, type OverviewModule, type OverviewMonth } from '@/lib/contracts/overview';
 import { defectsHref } from '@/lib/overview/links';
-import { formatMonth, formatPct } from './format';
+import { formatMonth, formatPct, percentTicks } from './format';
 
 /** Series colours of the open statuses (design tokens of global.css). */
 export const STATUS_COLOURS: Record<OpenStatus, string> = {
@@ -87,13 +87,14 @@ export function StatusDepotChart({ depots }: { depots: OverviewDepot[] }) {
 export function RepeatTrendChart({ trend, average }: { trend: OverviewMonth[]; average: number | null }) {
   const data = trend.map((m) => ({ ...m, label: formatMonth(m.month), ratePct: m.rate === null ? null : Math.round(m.rate * 1000) / 10 }));
   const height = 260;
+  const ticks = percentTicks(Math.max(0, ...data.map((m) => m.ratePct ?? 0), average === null ? 0 : average * 100));
   return (
     <ChartBox height={height} label="Repeat rate by month, last 12 months">
       {(width) => (
         <LineChart width={width} height={height} data={data} margin={{ top: 12, right: 84, bottom: 4, left: 0 }}>
           <CartesianGrid vertical={false} stroke={INK_200} />
           <XAxis dataKey="label" tick={AXIS} interval={width < 560 ? 1 : 0} />
-          <YAxis tick={AXIS} unit="%" width={48} allowDecimals={false} domain={[0, (max: number) => Math.max(10, Math.ceil(max / 5) * 5)]} />
+          <YAxis tick={AXIS} unit="%" width={48} ticks={ticks} domain={[0, ticks[ticks.length - 1]!]} />
           <Tooltip
             formatter={(_v, _n, item) => {
               const m = item.payload as OverviewMonth;
@@ -175,13 +176,14 @@ export function DepotRepeatChart({ depots, windowFrom, average }: { depots: Over
   const data = depots.map((d) => ({ ...d, ratePct: d.rate === null ? 0 : Math.round(d.rate * 1000) / 10 }));
   const height = 240;
   const row = (p: BarShapeProps) => p.payload as OverviewDepot;
+  const ticks = percentTicks(Math.max(0, ...data.map((d) => d.ratePct)));
   return (
     <ChartBox height={height} label="Repeat rate by depot, last 12 months">
       {(width) => (
         <BarChart width={width} height={height} data={data} margin={{ top: 12, right: 72, bottom: 4, left: 0 }}>
           <CartesianGrid vertical={false} stroke={INK_200} />
           <XAxis dataKey="code" tick={AXIS} />
-          <YAxis tick={AXIS} unit="%" width={48} allowDecimals={false} />
+          <YAxis tick={AXIS} unit="%" width={48} ticks={ticks} domain={[0, ticks[ticks.length - 1]!]} />
           <Tooltip
             cursor={{ fill: 'rgba(44,133,137,0.08)' }}
             formatter={(_v, _n, item) => {

@@ -18,3 +18,12 @@ export function formatMonth(month: string): string {
 export function formatPer100(n: number, vehicles: number): string {
   return vehicles > 0 ? ((n / vehicles) * 100).toFixed(1) : '–';
 }
+
+/** Round percentage ticks from 0 to just above `maxPct` (steps of 5, 10 or 20). */
+export function percentTicks(maxPct: number): number[] {
+  const step = maxPct <= 30 ? 5 : maxPct <= 60 ? 10 : 20;
+  const top = Math.min(100, Math.max(10, Math.ceil((maxPct + 0.001) / step) * step));
+  const out: number[] = [];
+  for (let t = 0; t <= top; t += step) out.push(t);
+  return out;
+}

@@ -82,13 +82,13 @@ function SettingsForm() {
         <div>
           <h2 id="repeat-window-h">Repeat-repair window</h2>
           <p className="mt-1 max-w-prose text-sm text-ink-600">
-            A defect is a repeat when the same vehicle had a closed defect on the same door and module function no more than this many days before it was
-            reported. Repeats are flagged on the Defects list and on each defect, and counted on the Overview. Changing the window recomputes the repeat link of
+            A defect is a repeat when the same vehicle had an earlier defect on the same door and module function that was closed no more than this
+            many days before the new one was reported. Repeats are flagged on the Defects list and on each defect, and counted on the Overview. Changing the window recomputes the repeat link of
             every defect at once.
           </p>
         </div>
         <form
-          className="flex flex-wrap items-end gap-3"
+          className="flex flex-wrap items-start gap-3"
           onSubmit={(e) => {
             e.preventDefault();
             run(false);
@@ -107,12 +107,14 @@ function SettingsForm() {
               disabled={settings.isPending}
             />
           </FormField>
-          <button type="button" className="btn-secondary" disabled={change.isPending || settings.isPending || unchanged} onClick={() => run(true)}>
-            Preview the effect
-          </button>
-          <button type="submit" className="btn-primary" disabled={change.isPending || settings.isPending || unchanged}>
-            {change.isPending && !change.variables?.dryRun ? 'Recomputing…' : 'Save and recompute'}
-          </button>
+          <div className="flex flex-wrap gap-3 sm:mt-6">
+            <button type="button" className="btn-secondary" disabled={change.isPending || settings.isPending || unchanged} onClick={() => run(true)}>
+              Preview the effect
+            </button>
+            <button type="submit" className="btn-primary" disabled={change.isPending || settings.isPending || unchanged}>
+              {change.isPending && !change.variables?.dryRun ? 'Recomputing…' : 'Save and recompute'}
+            </button>
+          </div>
         </form>
         {result && <Outcome r={result} />}
         {formError && (
