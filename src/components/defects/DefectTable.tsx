@@ -152,7 +152,7 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
             anyLabel="All module types"
             className="min-w-[11rem] flex-[1_1_12rem]"
           />
-          <SelectField label="Age" value={state.olderThanDays ?? ''} onChange={set('olderThanDays')} options={ageOptions} anyLabel="Any age" className="min-w-[12rem] flex-[1_1_12rem]" />
+          <SelectField label="Age" value={state.olderThanDays ?? ''} onChange={set('olderThanDays')} options={ageOptions} anyLabel="Any age" className="min-w-[10rem] flex-[1_1_10rem]" />
           <DateField label="Reported from" value={state.reportedFrom ?? ''} onChange={set('reportedFrom')} max={state.reportedTo} />
           <DateField label="Reported to" value={state.reportedTo ?? ''} onChange={set('reportedTo')} min={state.reportedFrom} />
         </div>

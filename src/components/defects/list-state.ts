@@ -132,4 +132,4 @@ export function defectExportHref(state: DefectListState): string {
 }
 
 /** The age choices offered, as select options. */
-export const AGE_OPTIONS = DEFECT_AGE_DAYS.map((d) => ({ value: String(d), label: `Reported over ${d} days ago` }));
+export const AGE_OPTIONS = DEFECT_AGE_DAYS.map((d) => ({ value: String(d), label: `Older than ${d} days` }));
