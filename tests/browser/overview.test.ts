@@ -60,6 +60,17 @@ describe('Overview as fleet manager', () => {
     expect(pathOf(page)).toBe('/defects?open=1&olderThanDays=30&sort=reportedAt');
   });
 
+  it('the off-road figure opens the Vehicles list with the same count', async () => {
+    const page = h.page;
+    await overview(page);
+    const offRoad = await figure(page, 'kpi-offroad');
+    expect(offRoad).toBeGreaterThan(0);
+    await page.getByTestId('kpi-offroad').click();
+    await page.waitForURL((u) => u.pathname === '/vehicles');
+    expect(pathOf(page)).toBe('/vehicles?status=off_road');
+    await page.getByText(`${fmt(offRoad)} ${offRoad === 1 ? 'vehicle matches' : 'vehicles match'} these filters`).waitFor();
+  });
+
   it('a segment of the status-by-depot chart opens that depot\'s defects in that status', async () => {
     const page = h.page;
     await overview(page);
