@@ -66,6 +66,7 @@ export const DefectListQuery = ListQueryBase.extend({
   reportedFrom: dayParam('reportedFrom').optional(),
   reportedTo: dayParam('reportedTo').optional(),
 });
+/** A parsed defect list query. */
 export type DefectListQuery = z.infer<typeof DefectListQuery>;
 
 export const SimpleListQuery = ListQueryBase;

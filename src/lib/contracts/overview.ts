@@ -6,6 +6,7 @@
 
 /** The open statuses, in workflow order. */
 export const OPEN_STATUSES = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'] as const;
+/** One open status. */
 export type OpenStatus = (typeof OPEN_STATUSES)[number];
 
 /** Reported and repeat counts over a window. */
@@ -45,6 +46,7 @@ export type OverviewDefect = {
   repeatOfRef: string | null;
 };
 
+/** Body of GET /api/overview. */
 export type OverviewResponse = {
   asOf: string;
   /** What the caller sees: their role, whether every depot, and the repeat window in force. */

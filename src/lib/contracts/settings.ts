@@ -6,6 +6,7 @@ import { z } from 'zod';
 
 /** Bounds of the repeat-repair window, in days (one day to ten years). */
 export const REPEAT_WINDOW_MIN_DAYS = 1;
+/** Upper bound of the repeat-repair window, in days. */
 export const REPEAT_WINDOW_MAX_DAYS = 3650;
 
 /** Body of PATCH /api/settings: the fields to change (unknown keys are refused). */
@@ -16,6 +17,7 @@ export const SettingsPatchSchema = z.strictObject({
     .min(REPEAT_WINDOW_MIN_DAYS, `repeatWindowDays must be at least ${REPEAT_WINDOW_MIN_DAYS}`)
     .max(REPEAT_WINDOW_MAX_DAYS, `repeatWindowDays must be at most ${REPEAT_WINDOW_MAX_DAYS}`),
 });
+/** A validated settings change. */
 export type SettingsPatch = z.infer<typeof SettingsPatchSchema>;
 
 /** Query of PATCH /api/settings: `dryRun=1` works out the effect and writes nothing. */
