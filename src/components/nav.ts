@@ -12,6 +12,7 @@ export const NAV_ITEMS: NavItem[] = [
   { key: 'modules', label: 'Modules', href: '/modules', permission: 'read', icon: 'M4 4h16v16H4zM4 10h16M10 4v16' },
   { key: 'import', label: 'Import', href: '/import', permission: 'import', icon: 'M12 3v12M7 10l5 5 5-5M4 19h16' },
   { key: 'people', label: 'People', href: '/people', permission: 'user:write', icon: 'M16 11a4 4 0 10-8 0 4 4 0 008 0zM4 21a8 8 0 0116 0' },
+  { key: 'settings', label: 'Settings', href: '/settings', permission: 'settings:write', icon: 'M4 6h10M18 6h2M4 12h4M12 12h8M4 18h12M20 18h0M16 4v4M10 10v4M18 16v4' },
 ];
 
 /** The items a role sees. */

@@ -2,7 +2,7 @@
  * Defects: the list with its filters (scoped to the caller's depots), one record with decoded fault codes
  * and its audit trail, create, change (with a version check) and delete.
  */
-import { and, eq, gte, inArray, lte, or, sql, type SQL } from 'drizzle-orm';
+import { and, eq, gte, inArray, lt, lte, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
 import { defectParts, defects, depots, modules, users, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
@@ -113,12 +113,20 @@ function checkValues(name: string, values: string[], allowed: readonly string[],
   return norm;
 }
 
-/** Defects in the caller's depots, filtered, sorted and paged. */
-export function listDefects(user: SessionUser, q: DefectListQuery): ListResponse<DefectJson> {
-  const db = getDb();
-  const { page, pageSize, offset } = paging(q);
+const DAY_MS = 86_400_000;
+
+/** Epoch ms of a reportedFrom/reportedTo value: a bare UTC day covers the whole day (400 when not a date). */
+function reportedBound(key: 'reportedFrom' | 'reportedTo', v: string): number {
+  const t = parseInstant(v);
+  if (t === null) throw invalid(`${key} must be a real date YYYY-MM-DD.`, [{ path: key, message: 'Not a date' }]);
+  return key === 'reportedTo' && v.trim().length === 10 ? t + DAY_MS - 1 : t;
+}
+
+/** WHERE of the defect list for a caller and query (shared by the paged list and its CSV export). */
+function defectListWhere(user: SessionUser, q: DefectListQuery, now: number): SQL | undefined {
   const conds: (SQL | undefined)[] = [depotScope(user, defects.depotId)];
-  if (q.depot) conds.push(inArray(depots.code, listParam(q.depot).map((s) => s.toUpperCase())));
+  const depotCodes = listParam(q.depot);
+  if (depotCodes.length) conds.push(inArray(depots.code, depotCodes.map((s) => s.toUpperCase())));
   if (q.vin) conds.push(eq(vehicles.vin, q.vin.trim().toUpperCase()));
   if (q.vehicleId) conds.push(eq(defects.vehicleId, q.vehicleId));
   if (q.ref) conds.push(eq(defects.ref, q.ref.trim().toUpperCase()));
@@ -135,14 +143,15 @@ export function listDefects(user: SessionUser, q: DefectListQuery): ListResponse
   const open = bool(q.open);
   if (open !== undefined) conds.push(open ? inArray(defects.status, OPEN as (typeof DEFECT_STATUSES)[number][]) : sql`${defects.status} in ('closed','cancelled')`);
   if (bool(q.mine)) conds.push(or(eq(defects.assignedToId, user.id), eq(defects.reportedById, user.id)));
-  for (const [key, op] of [['reportedFrom', gte], ['reportedTo', lte]] as const) {
-    const v = q[key];
-    if (v) {
-      const t = parseInstant(v);
-      if (t === null) throw invalid(`${key} must be a date YYYY-MM-DD.`, [{ path: key, message: 'Not a date' }]);
-      conds.push(op(defects.reportedAt, key === 'reportedTo' && v.length === 10 ? t + 86_399_999 : t));
-    }
+  // Age: reported more than N whole days before now (with open=1, "open longer than N days").
+  if (q.olderThanDays !== undefined) conds.push(lt(defects.reportedAt, now - q.olderThanDays * DAY_MS));
+  const from = q.reportedFrom ? reportedBound('reportedFrom', q.reportedFrom) : null;
+  const to = q.reportedTo ? reportedBound('reportedTo', q.reportedTo) : null;
+  if (from !== null && to !== null && from > to) {
+    throw invalid('reportedFrom must not be after reportedTo.', [{ path: 'reportedFrom', message: 'After reportedTo' }]);
   }
+  if (from !== null) conds.push(gte(defects.reportedAt, from));
+  if (to !== null) conds.push(lte(defects.reportedAt, to));
   if (q.q) {
     const p = likePattern(q.q.trim());
     conds.push(
@@ -156,31 +165,59 @@ export function listDefects(user: SessionUser, q: DefectListQuery): ListResponse
       ),
     );
   }
-  const where = and(...conds);
-  const base = () =>
-    db
-      .select(defectSelect)
-      .from(defects)
-      .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
-      .innerJoin(depots, eq(depots.id, defects.depotId))
-      .innerJoin(modules, eq(modules.id, defects.moduleId))
-      .leftJoin(earlier, eq(earlier.id, defects.repeatOfId));
-  const total =
-    db
+  return and(...conds);
+}
+
+function defectListSelect() {
+  return getDb()
+    .select(defectSelect)
+    .from(defects)
+    .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
+    .innerJoin(depots, eq(depots.id, defects.depotId))
+    .innerJoin(modules, eq(modules.id, defects.moduleId))
+    .leftJoin(earlier, eq(earlier.id, defects.repeatOfId));
+}
+
+function defectListCount(where: SQL | undefined): number {
+  return (
+    getDb()
       .select({ n: sql<number>`count(*)` })
       .from(defects)
       .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
       .innerJoin(depots, eq(depots.id, defects.depotId))
       .innerJoin(modules, eq(modules.id, defects.moduleId))
       .where(where)
-      .get()?.n ?? 0;
-  const rows = base()
-    .where(where)
-    .orderBy(...orderBy(q.sort, DEFECT_SORT, '-reportedAt', defects.id))
-    .limit(pageSize)
-    .offset(offset)
-    .all();
+      .get()?.n ?? 0
+  );
+}
+
+/** Defects in the caller's depots, filtered, sorted and paged. */
+export function listDefects(user: SessionUser, q: DefectListQuery, now = Date.now()): ListResponse<DefectJson> {
+  const { page, pageSize, offset } = paging(q);
+  const where = defectListWhere(user, q, now);
+  const order = orderBy(q.sort, DEFECT_SORT, '-reportedAt', defects.id);
+  const total = defectListCount(where);
+  const rows = defectListSelect().where(where).orderBy(...order).limit(pageSize).offset(offset).all();
   return { items: rows.map(defectJson), total, page, pageSize };
+}
+
+/** Largest view the CSV export writes in one file. */
+export const DEFECT_EXPORT_MAX_ROWS = 250_000;
+
+/**
+ * Every defect of a filtered view (all pages, the list's sort), read in one statement so the file is one
+ * consistent snapshot; 400 when the view is larger than DEFECT_EXPORT_MAX_ROWS.
+ */
+export function listDefectsForExport(user: SessionUser, q: DefectListQuery, now = Date.now()): DefectJson[] {
+  const where = defectListWhere(user, q, now);
+  const order = orderBy(q.sort, DEFECT_SORT, '-reportedAt', defects.id);
+  const total = defectListCount(where);
+  if (total > DEFECT_EXPORT_MAX_ROWS) {
+    throw invalid(`This view holds ${total} defects; a download takes at most ${DEFECT_EXPORT_MAX_ROWS}. Narrow the filters (for example by dates).`, [
+      { path: 'reportedFrom', message: 'Too many rows for one file' },
+    ]);
+  }
+  return defectListSelect().where(where).orderBy(...order).all().map(defectJson);
 }
 
 function loadDefect(id: number): DefectSel | undefined {

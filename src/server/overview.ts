@@ -1,61 +1,192 @@
-/** Figures for the Overview page, limited to the caller's depots. */
-import { and, asc, eq, sql } from 'drizzle-orm';
+/**
+ * Figures of the Overview page (and GET /api/overview), aggregated in SQLite over the caller's depots: open
+ * work by depot and status, vehicles off road, the oldest open defects, and, over the trailing twelve UTC
+ * calendar months, defects reported and repeats per month, per depot and per module type. Six grouped
+ * queries whatever the fleet size (see docs/benchmarks.md); every window is whole UTC days so that each figure
+ * equals the Defects list filtered by its link.
+ */
+import { and, asc, eq, gte, inArray, isNull, lt, or, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
+import { OPEN_STATUSES, type OpenStatus, type OverviewDefect, type OverviewResponse, type RepeatCounts } from '@/lib/contracts/overview';
+import { fillMonths, monthWindows, repeatRate } from '@/lib/overview/windows';
 import type { SessionUser } from './auth';
 import { depotScope, iso } from './list-helpers';
+import { repeatWindowDays } from './repeats';
 
-const OPEN_SQL = sql`('reported','diagnosing','awaiting_parts','repaired','verified')`;
+const DAY_MS = 86_400_000;
+/** Days after which an open defect counts as "open for long" on the Overview. */
+export const OVERVIEW_STALE_DAYS = 30;
+/** Rows in the "oldest open" and "my open work" lists. */
+export const OVERVIEW_LIST_ROWS = 8;
 
-/** Counts by status and depot, vehicles off road, repeats and the oldest open defects. */
-export function getOverview(user: SessionUser, now = Date.now()) {
+const earlier = alias(defects, 'earlier');
+const openStatuses = [...OPEN_STATUSES];
+
+const zeroStatuses = (): Record<OpenStatus, number> => Object.fromEntries(OPEN_STATUSES.map((s) => [s, 0])) as Record<OpenStatus, number>;
+
+/** Everything the Overview shows for this caller, as of `now`. */
+export function getOverview(user: SessionUser, now = Date.now()): OverviewResponse {
   const db = getDb();
-  const vScope = depotScope(user, vehicles.depotId);
+  const months = monthWindows(now, 12);
+  const windowStart = months[0]!;
   const dScope = depotScope(user, defects.depotId);
-  const vehiclesActive = db.select({ n: sql<number>`count(*)` }).from(vehicles).where(and(vScope, sql`${vehicles.retiredDate} is null`)).get()?.n ?? 0;
-  const offRoad = db.select({ n: sql<number>`count(*)` }).from(vehicles).where(and(vScope, sql`${vehicles.retiredDate} is null and ${vehicles.offRoadSinceAt} is not null`)).get()?.n ?? 0;
-  const byStatus = db
-    .select({ status: defects.status, n: sql<number>`count(*)` })
-    .from(defects)
-    .where(and(dScope, sql`${defects.status} in ${OPEN_SQL}`))
-    .groupBy(defects.status)
-    .all();
-  const byDepot = db
+  const isOpen = inArray(defects.status, openStatuses);
+
+  // 1. Depots in scope (every depot shows, even without defects), and vehicles in service and off road per depot.
+  const depotRows = db.select({ id: depots.id, code: depots.code, name: depots.name }).from(depots).where(depotScope(user, depots.id)).orderBy(asc(depots.code)).all();
+  // NOTE: grouping on `depot_id + 0` makes SQLite scan the table once instead of walking the depot index and
+  // fetching every row from it (157 → 28 ms at 100,000 vehicles, docs/benchmarks.md).
+  const fleetRows = db
     .select({
-      code: depots.code,
-      name: depots.name,
-      open: sql<number>`sum(case when ${defects.status} in ${OPEN_SQL} then 1 else 0 end)`,
-      last90: sql<number>`sum(case when ${defects.reportedAt} >= ${now - 90 * 86_400_000} then 1 else 0 end)`,
-      repeats90: sql<number>`sum(case when ${defects.reportedAt} >= ${now - 90 * 86_400_000} and ${defects.repeatOfId} is not null then 1 else 0 end)`,
+      depotId: vehicles.depotId,
+      inService: sql<number>`count(*)`,
+      offRoad: sql<number>`sum(${vehicles.offRoadSinceAt} is not null)`,
+    })
+    .from(vehicles)
+    .where(and(depotScope(user, vehicles.depotId), isNull(vehicles.retiredDate)))
+    .groupBy(sql`${vehicles.depotId} + 0`)
+    .all();
+  const fleetByDepot = new Map(fleetRows.map((r) => [r.depotId, r]));
+
+  // 2. Open defects by depot and status (index defects_depot_status_idx).
+  const openRows = db
+    .select({ depotId: defects.depotId, status: defects.status, n: sql<number>`count(*)` })
+    .from(defects)
+    .where(and(dScope, isOpen))
+    .groupBy(defects.depotId, defects.status)
+    .all();
+
+  // 3. Open for longer than OVERVIEW_STALE_DAYS (the list's olderThanDays rule).
+  const openStale =
+    db
+      .select({ n: sql<number>`count(*)` })
+      .from(defects)
+      .where(and(dScope, isOpen, lt(defects.reportedAt, now - OVERVIEW_STALE_DAYS * DAY_MS)))
+      .get()?.n ?? 0;
+
+  // 4. Reported and repeats in the twelve-month window by depot, module type and UTC month, in one pass.
+  const windowRows = db
+    .select({
+      depotId: defects.depotId,
+      moduleId: defects.moduleId,
+      month: sql<string>`strftime('%Y-%m', ${defects.reportedAt} / 1000, 'unixepoch')`,
+      reported: sql<number>`count(*)`,
+      repeats: sql<number>`sum(${defects.repeatOfId} is not null)`,
     })
     .from(defects)
-    .innerJoin(depots, eq(depots.id, defects.depotId))
-    .where(dScope)
-    .groupBy(depots.code)
-    .orderBy(asc(depots.code))
+    .where(and(dScope, gte(defects.reportedAt, windowStart.fromMs)))
+    // NOTE: `+ 0` keeps SQLite from walking the whole (depot, status) index for the grouping; with it the
+    // reported_at index narrows to the window first (68 → 17 ms at 80,000 defects, docs/benchmarks.md).
+    .groupBy(sql`${defects.depotId} + 0`, defects.moduleId, sql`3`)
     .all();
-  const reported90 = byDepot.reduce((s, d) => s + (d.last90 ?? 0), 0);
-  const repeats90 = byDepot.reduce((s, d) => s + (d.repeats90 ?? 0), 0);
-  const topModules = db
-    .select({ code: modules.code, name: modules.name, n: sql<number>`count(*)` })
-    .from(defects)
-    .innerJoin(modules, eq(modules.id, defects.moduleId))
-    .where(and(dScope, sql`${defects.reportedAt} >= ${now - 365 * 86_400_000}`))
-    .groupBy(modules.code)
-    .orderBy(sql`count(*) desc`)
-    .limit(6)
-    .all();
-  const oldest = db
-    .select({ id: defects.id, ref: defects.ref, status: defects.status, reportedAt: defects.reportedAt, position: defects.position, vin: vehicles.vin, fleetNumber: vehicles.fleetNumber, depotCode: depots.code, moduleCode: modules.code, symptom: defects.symptom })
-    .from(defects)
-    .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
-    .innerJoin(depots, eq(depots.id, defects.depotId))
-    .innerJoin(modules, eq(modules.id, defects.moduleId))
-    .where(and(dScope, sql`${defects.status} in ${OPEN_SQL}`))
-    .orderBy(asc(defects.reportedAt))
-    .limit(8)
-    .all()
-    .map((r) => ({ ...r, reportedAt: iso(r.reportedAt)!, ageDays: Math.floor((now - r.reportedAt) / 86_400_000) }));
-  const openTotal = byStatus.reduce((s, r) => s + r.n, 0);
-  return { vehiclesActive, offRoad, openTotal, byStatus, byDepot, reported90, repeats90, repeatRate90: reported90 ? repeats90 / reported90 : null, topModules, oldest };
+
+  // 5. Oldest open defects, and 6. the caller's own open work (technicians).
+  const shortList = (where: ReturnType<typeof and>) =>
+    db
+      .select({
+        id: defects.id,
+        ref: defects.ref,
+        status: defects.status,
+        reportedAt: defects.reportedAt,
+        position: defects.position,
+        vin: vehicles.vin,
+        fleetNumber: vehicles.fleetNumber,
+        depotCode: depots.code,
+        moduleCode: modules.code,
+        symptom: defects.symptom,
+        repeatOfId: defects.repeatOfId,
+        repeatOfRef: earlier.ref,
+      })
+      .from(defects)
+      .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
+      .innerJoin(depots, eq(depots.id, defects.depotId))
+      .innerJoin(modules, eq(modules.id, defects.moduleId))
+      .leftJoin(earlier, eq(earlier.id, defects.repeatOfId))
+      .where(where)
+      .orderBy(asc(defects.reportedAt), asc(defects.id))
+      .limit(OVERVIEW_LIST_ROWS)
+      .all()
+      .map((r): OverviewDefect => ({ ...r, reportedAt: iso(r.reportedAt)!, ageDays: Math.floor((now - r.reportedAt) / DAY_MS) }));
+  const oldest = shortList(and(dScope, isOpen));
+  let mine: OverviewResponse['mine'] = null;
+  if (user.role === 'technician') {
+    const own = and(dScope, isOpen, or(eq(defects.assignedToId, user.id), eq(defects.reportedById, user.id)));
+    const total = db.select({ n: sql<number>`count(*)` }).from(defects).where(own).get()?.n ?? 0;
+    mine = { total, items: shortList(own) };
+  }
+
+  // Fold the grouped rows into the figures.
+  const openByDepot = new Map<number, Record<OpenStatus, number>>();
+  const openByStatus = zeroStatuses();
+  for (const r of openRows) {
+    const s = r.status as OpenStatus;
+    let d = openByDepot.get(r.depotId);
+    if (!d) openByDepot.set(r.depotId, (d = zeroStatuses()));
+    d[s] += r.n;
+    openByStatus[s] += r.n;
+  }
+  const add = (m: Map<string | number, { reported: number; repeats: number }>, k: string | number, reported: number, repeats: number) => {
+    const c = m.get(k) ?? { reported: 0, repeats: 0 };
+    c.reported += reported;
+    c.repeats += repeats;
+    m.set(k, c);
+  };
+  const byDepot = new Map<string | number, { reported: number; repeats: number }>();
+  const byModule = new Map<string | number, { reported: number; repeats: number }>();
+  const byMonth = new Map<string, { reported: number; repeats: number }>();
+  for (const r of windowRows) {
+    const reps = r.repeats ?? 0;
+    add(byDepot, r.depotId, r.reported, reps);
+    add(byModule, r.moduleId, r.reported, reps);
+    add(byMonth as Map<string | number, { reported: number; repeats: number }>, r.month, r.reported, reps);
+  }
+  const counts = (c: { reported: number; repeats: number } | undefined): RepeatCounts => {
+    const reported = c?.reported ?? 0;
+    const repeats = c?.repeats ?? 0;
+    return { reported, repeats, rate: repeatRate(repeats, reported) };
+  };
+
+  const depotFigures = depotRows.map((d) => {
+    const open = openByDepot.get(d.id) ?? zeroStatuses();
+    return {
+      code: d.code,
+      name: d.name,
+      open,
+      openTotal: OPEN_STATUSES.reduce((s, k) => s + open[k], 0),
+      vehiclesInService: fleetByDepot.get(d.id)?.inService ?? 0,
+      offRoad: fleetByDepot.get(d.id)?.offRoad ?? 0,
+      ...counts(byDepot.get(d.id)),
+    };
+  });
+  const moduleIds = [...byModule.keys()] as number[];
+  const moduleNames = moduleIds.length
+    ? db.select({ id: modules.id, code: modules.code, name: modules.name }).from(modules).where(inArray(modules.id, moduleIds)).all()
+    : [];
+  const moduleFigures = moduleNames
+    .map((m) => ({ code: m.code, name: m.name, ...counts(byModule.get(m.id)) }))
+    .sort((a, b) => b.reported - a.reported || b.repeats - a.repeats || a.code.localeCompare(b.code));
+  const trend = fillMonths(months, byMonth).map(({ month, from, to, reported, repeats, rate }) => ({ month, from, to, reported, repeats, rate }));
+  const windowTotals = counts({ reported: windowRows.reduce((s, r) => s + r.reported, 0), repeats: windowRows.reduce((s, r) => s + (r.repeats ?? 0), 0) });
+
+  return {
+    asOf: new Date(now).toISOString(),
+    role: user.role,
+    allDepots: user.depotIds === null,
+    repeatWindowDays: repeatWindowDays(db),
+    windowFrom: windowStart.from,
+    staleDays: OVERVIEW_STALE_DAYS,
+    vehiclesInService: depotFigures.reduce((s, d) => s + d.vehiclesInService, 0),
+    offRoad: depotFigures.reduce((s, d) => s + d.offRoad, 0),
+    openTotal: OPEN_STATUSES.reduce((s, k) => s + openByStatus[k], 0),
+    openStale,
+    openByStatus,
+    window: windowTotals,
+    depots: depotFigures,
+    modules: moduleFigures,
+    trend,
+    oldest,
+    mine,
+  };
 }

@@ -1,46 +1,54 @@
 /**
  * The Defects list island: server-side paging, sorting, search and filters over the caller's depots, kept
- * in the URL, and a CSV download of the whole filtered view in the defects import format.
+ * in the URL with history (Back/Forward and shared links work), "My open defects" / "All defects" tabs, and a
+ * CSV download of the whole filtered view (every page) in the defects import format.
  */
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { ChevronDown, ChevronUp, Download, X } from 'lucide-react';
+import { ChevronDown, ChevronUp, Download, Plus, X } from 'lucide-react';
 import { queryClient } from '@/lib/client/query-client';
-import { useUrlState } from '@/lib/client/url-state';
 import { DataTable } from '@/components/ui/DataTable';
 import { MOISTURE_LABELS, POSITION_LABELS, STATUS_LABELS } from '@/components/labels';
 import { useDepotOptions } from '@/components/vehicles/queries';
 import { ChipGroup, PageSizeSelect, SearchBox, SelectField, Toggle, pageOf, pageSizeOf, splitList } from './FilterControls';
 import { DEFECT_NARROW_MAX_PX, DEFECT_WIDE_MIN_PX, defectColumns, defectColumnsCompact, defectColumnsNarrow } from './columns';
-import { buildDefectsCsv, defectsCsvFileName } from './csv-export';
 import { formatCount } from './format';
-import { EXPORT_MAX_ROWS, fetchAllDefects, pickDefectParams, useDefects, useModuleOptions } from './queries';
+import {
+  AGE_OPTIONS,
+  activeFilterCount,
+  clearFiltersPatch,
+  DEFAULT_DEFECT_SORT,
+  defectExportHref,
+  defectTab,
+  initialDefectState,
+  pickDefectState,
+  tabPatch,
+} from './list-state';
+import { useDefects, useModuleOptions } from './queries';
 import { useContainerWidth } from './use-container-width';
+import { useDefectListUrl } from './use-list-url';
 
 type Props = {
   /** The page's query string at render time, so the server render and hydration agree. */
   initialParams: Record<string, string>;
-  /** Show the "My defects" filter (people who report and work defects). */
+  /** Show the "My open defects" / "All defects" tabs (people who report and work defects). */
   showMine: boolean;
+  /** Land on "My open defects" when the URL names no view (technicians). */
+  myOpenByDefault: boolean;
+  /** Show "Report a defect" (roles with defect:write). */
+  canReport: boolean;
 };
 
-const FILTER_KEYS = ['q', 'depot', 'vin', 'status', 'module', 'position', 'moisture', 'repeat', 'open', 'mine', 'reportedFrom', 'reportedTo'] as const;
 const STATUS_OPTIONS = Object.entries(STATUS_LABELS).map(([value, label]) => ({ value, label }));
 const POSITION_OPTIONS = Object.entries(POSITION_LABELS).map(([value, label]) => ({ value, label: value, title: label }));
 const MOISTURE_OPTIONS = Object.entries(MOISTURE_LABELS).map(([value, label]) => ({ value, label }));
 
-type ExportState =
-  | { phase: 'idle' }
-  | { phase: 'running'; done: number; total: number }
-  | { phase: 'done'; rows: number; truncated: boolean; total: number }
-  | { phase: 'error'; message: string };
-
-function DefectList({ initialParams, showMine }: Props) {
-  const [state, update] = useUrlState(initialParams);
+function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Props) {
+  const [state, update] = useDefectListUrl(useMemo(() => initialDefectState(initialParams, myOpenByDefault), [initialParams, myOpenByDefault]));
   const page = pageOf(state.page);
   const pageSize = pageSizeOf(state.pageSize);
-  const sort = state.sort || '-reportedAt';
-  const params = useMemo(() => pickDefectParams({ ...state, page: String(page), pageSize: String(pageSize), sort }), [state, page, pageSize, sort]);
+  const sort = state.sort || DEFAULT_DEFECT_SORT;
+  const params = useMemo(() => pickDefectState({ ...state, page: String(page), pageSize: String(pageSize), sort }), [state, page, pageSize, sort]);
   const list = useDefects(params);
   const depots = useDepotOptions();
   const modules = useModuleOptions();
@@ -51,116 +59,106 @@ function DefectList({ initialParams, showMine }: Props) {
   const lastPage = list.data ? Math.max(1, Math.ceil(list.data.total / pageSize)) : 1;
   useEffect(() => {
     if (list.data && !list.isPlaceholderData && list.data.items.length === 0 && list.data.total > 0 && page > lastPage)
-      update({ page: String(lastPage) }, false);
+      update({ page: String(lastPage) }, { push: false });
   }, [list.data, list.isPlaceholderData, page, lastPage, update]);
 
   const onSearch = useCallback((q: string) => update({ q }), [update]);
   const set = (k: string) => (v: string) => update({ [k]: v });
   const flag = (k: string) => (on: boolean) => update({ [k]: on ? '1' : undefined });
-  const filtered = FILTER_KEYS.some((k) => state[k]);
+  const filterCount = activeFilterCount(state);
+  const tab = defectTab(state);
+  const narrowed = filterCount > 0 || tab === 'mine';
   const total = list.data?.total ?? 0;
   const depotOptions = (depots.data ?? []).map((d) => ({ value: d.code, label: `${d.code} · ${d.name}` }));
   const moduleOptions = (modules.data ?? []).map((m) => ({ value: m.code, label: `${m.code} · ${m.name}` }));
+  // A value from a shared link that the pickers do not offer (e.g. two depots) still shows, so it can be cleared.
+  const withCurrent = (opts: { value: string; label: string }[], v: string | undefined) => (v && !opts.some((o) => o.value === v) ? [...opts, { value: v, label: v }] : opts);
+  const ageOptions = withCurrent(AGE_OPTIONS, state.olderThanDays);
 
-  const chipCount = ['status', 'position', 'moisture'].reduce((n, k) => n + splitList(state[k]).length, 0);
+  const chipCount = ['status', 'position', 'moisture'].reduce((n, k) => n + splitList(state[k as 'status']).length, 0);
   const [moreOpen, setMoreOpen] = useState(chipCount > 0);
-
-  const [exp, setExp] = useState<ExportState>({ phase: 'idle' });
-  const abortRef = useRef<AbortController | null>(null);
-  const download = async () => {
-    abortRef.current?.abort();
-    const ac = new AbortController();
-    abortRef.current = ac;
-    setExp({ phase: 'running', done: 0, total: Math.min(total, EXPORT_MAX_ROWS) });
-    try {
-      const r = await fetchAllDefects(params, (done, t) => setExp({ phase: 'running', done, total: t }), ac.signal);
-      const blob = new Blob([buildDefectsCsv(r.rows)], { type: 'text/csv;charset=utf-8' });
-      const url = URL.createObjectURL(blob);
-      const a = document.createElement('a');
-      a.href = url;
-      a.download = defectsCsvFileName(new Date());
-      document.body.appendChild(a);
-      a.click();
-      a.remove();
-      setTimeout(() => URL.revokeObjectURL(url), 10_000);
-      setExp({ phase: 'done', rows: r.rows.length, truncated: r.truncated, total: r.total });
-    } catch (e) {
-      if (ac.signal.aborted) setExp({ phase: 'idle' });
-      else setExp({ phase: 'error', message: e instanceof Error ? e.message : 'The download failed.' });
-    }
-  };
+  useEffect(() => {
+    if (chipCount > 0) setMoreOpen(true);
+  }, [chipCount]);
 
   return (
     <div className="space-y-3" ref={boxRef}>
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1>Defects</h1>
-          <p className="text-sm text-ink-500" aria-live="polite">
+          <p className="text-sm text-ink-500" aria-live="polite" data-testid="defect-count">
             {list.data
-              ? `${formatCount(total)} ${total === 1 ? 'defect' : 'defects'}${filtered ? (total === 1 ? ' matches these filters' : ' match these filters') : ' in your depots'}`
+              ? `${formatCount(total)} ${total === 1 ? 'defect' : 'defects'}${narrowed ? (total === 1 ? ' matches this view' : ' match this view') : ' in your depots'}`
               : 'Loading defects…'}
           </p>
         </div>
         <div className="flex flex-wrap items-center gap-3">
           <PageSizeSelect value={pageSize} onChange={(n) => update({ pageSize: String(n) })} />
-          {exp.phase === 'running' ? (
-            <button type="button" className="btn-secondary" onClick={() => abortRef.current?.abort()}>
-              <X size={16} aria-hidden="true" /> Stop ({formatCount(exp.done)} of {formatCount(exp.total)})
-            </button>
-          ) : (
-            <button
-              type="button"
-              className="btn-secondary"
-              onClick={download}
-              disabled={!list.data || total === 0}
-              title="Every defect of this filtered view, in the defects import format"
-            >
-              <Download size={16} aria-hidden="true" /> Download CSV
-            </button>
+          <a
+            className={`btn-secondary${!list.data || total === 0 ? ' pointer-events-none opacity-50' : ''}`}
+            href={defectExportHref(params)}
+            download
+            aria-disabled={!list.data || total === 0}
+            title="Every defect of this view (all pages), in the defects import format"
+          >
+            <Download size={16} aria-hidden="true" /> Download CSV
+          </a>
+          {canReport && (
+            <a className="btn-primary" href="/defects/new">
+              <Plus size={16} aria-hidden="true" /> Report a defect
+            </a>
           )}
         </div>
       </div>
-      {exp.phase === 'done' && (
-        <p role="status" className="text-sm text-ink-600">
-          Downloaded {formatCount(exp.rows)} {exp.rows === 1 ? 'defect' : 'defects'}.
-          {exp.truncated &&
-            ` The download stops at ${formatCount(EXPORT_MAX_ROWS)} of ${formatCount(exp.total)}; narrow the filters (for example by dates) and download the rest separately.`}
-        </p>
-      )}
-      {exp.phase === 'error' && (
-        <p role="alert" className="text-sm text-brick-700">
-          The download failed: {exp.message}
-        </p>
+
+      {showMine && (
+        <div role="tablist" aria-label="Which defects" className="flex gap-1 border-b border-ink-200">
+          {(['mine', 'all'] as const).map((t) => (
+            <button
+              key={t}
+              type="button"
+              role="tab"
+              aria-selected={tab === t}
+              onClick={() => tab !== t && update(tabPatch(t, myOpenByDefault))}
+              className={[
+                '-mb-px min-h-10 border-b-2 px-4 text-[15px] font-semibold',
+                tab === t ? 'border-estuary-700 text-estuary-800' : 'border-transparent text-ink-600 hover:text-ink-900',
+              ].join(' ')}
+            >
+              {t === 'mine' ? 'My open defects' : 'All defects'}
+            </button>
+          ))}
+        </div>
       )}
 
       <form className="card card-pad space-y-3" role="search" aria-label="Filter defects" onSubmit={(e) => e.preventDefault()}>
         <div className="flex flex-wrap items-end gap-3">
           <SearchBox label="Search" placeholder="Ref, VIN, fleet no., symptom, code" value={state.q ?? ''} onChange={onSearch} />
-          {depotOptions.length > 1 && (
+          {(depotOptions.length > 1 || state.depot) && (
             <SelectField
               label="Depot"
               value={state.depot ?? ''}
               onChange={set('depot')}
-              options={depotOptions}
+              options={withCurrent(depotOptions, state.depot)}
               anyLabel="All depots"
               className="min-w-[11rem] flex-[1_1_11rem]"
             />
           )}
           <SelectField
-            label="Module"
+            label="Module type"
             value={state.module ?? ''}
             onChange={set('module')}
-            options={moduleOptions}
-            anyLabel="All modules"
+            options={withCurrent(moduleOptions, state.module)}
+            anyLabel="All module types"
             className="min-w-[11rem] flex-[1_1_12rem]"
           />
+          <SelectField label="Age" value={state.olderThanDays ?? ''} onChange={set('olderThanDays')} options={ageOptions} anyLabel="Any age" className="min-w-[10rem] flex-[1_1_10rem]" />
           <DateField label="Reported from" value={state.reportedFrom ?? ''} onChange={set('reportedFrom')} max={state.reportedTo} />
           <DateField label="Reported to" value={state.reportedTo ?? ''} onChange={set('reportedTo')} min={state.reportedFrom} />
         </div>
         <div className="flex flex-wrap items-center gap-2">
           <Toggle label="Open only" checked={state.open === '1'} onChange={flag('open')} />
           <Toggle label="Repeats only" checked={state.repeat === '1'} onChange={flag('repeat')} />
-          {showMine && <Toggle label="My defects" checked={state.mine === '1'} onChange={flag('mine')} />}
           <button type="button" className="btn-ghost" aria-expanded={moreOpen} aria-controls="defect-more-filters" onClick={() => setMoreOpen((o) => !o)}>
             {moreOpen ? <ChevronUp size={16} aria-hidden="true" /> : <ChevronDown size={16} aria-hidden="true" />}
             Status, door, moisture
@@ -179,9 +177,9 @@ function DefectList({ initialParams, showMine }: Props) {
               </button>
             </span>
           )}
-          {filtered && (
-            <button type="button" className="btn-ghost ml-auto" onClick={() => update(Object.fromEntries(FILTER_KEYS.map((k) => [k, undefined])))}>
-              Clear filters
+          {filterCount > 0 && (
+            <button type="button" className="btn-ghost ml-auto" onClick={() => update(clearFiltersPatch())}>
+              Clear filters ({filterCount})
             </button>
           )}
         </div>
@@ -203,10 +201,10 @@ function DefectList({ initialParams, showMine }: Props) {
         pageSize={pageSize}
         sort={sort}
         onSort={(s) => update({ sort: s })}
-        onPage={(p) => update({ page: String(p) }, false)}
+        onPage={(p) => update({ page: String(p) }, { resetPage: false })}
         loading={list.isPending || list.isPlaceholderData}
         error={list.error ? list.error.message : null}
-        emptyText={filtered ? 'No defects match these filters.' : 'No defects recorded in your depots yet.'}
+        emptyText={tab === 'mine' && filterCount <= 1 ? 'Nothing open is assigned to you or reported by you.' : narrowed ? 'No defects match this view.' : 'No defects recorded in your depots yet.'}
       />
     </div>
   );

@@ -35,10 +35,33 @@ export function MoistureBadge({ value }: { value: string | null }) {
 export function RepeatBadge({ d, withRef = false }: { d: Pick<DefectRow, 'repeat' | 'repeatOfId' | 'repeatOfRef'>; withRef?: boolean }) {
   if (!d.repeat || d.repeatOfId === null) return null;
   return (
-    <a className="badge-brick hover:underline" href={defectHref(d.repeatOfId)} aria-label={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}>
+    <a
+      className="badge-brick hover:underline"
+      href={defectHref(d.repeatOfId)}
+      aria-label={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}
+      title={`Repeat of ${d.repeatOfRef ?? 'an earlier defect'}`}
+    >
       Repeat
       {withRef && d.repeatOfRef ? <span className="mono font-normal">of {d.repeatOfRef}</span> : null}
     </a>
+  );
+}
+
+/** The repeat mark with the earlier defect's ref under it, both linking to the earlier defect (wide layout). */
+export function RepeatCell({ d }: { d: Pick<DefectRow, 'repeat' | 'repeatOfId' | 'repeatOfRef'> }) {
+  if (!d.repeat || d.repeatOfId === null) return null;
+  return (
+    <div className="leading-tight whitespace-nowrap">
+      <RepeatBadge d={d} />
+      {d.repeatOfRef && (
+        <div className="mt-0.5 text-xs text-ink-500">
+          of{' '}
+          <a className="mono hover:text-estuary-700 hover:underline" href={defectHref(d.repeatOfId)} tabIndex={-1} aria-hidden="true">
+            {d.repeatOfRef}
+          </a>
+        </div>
+      )}
+    </div>
   );
 }
 
@@ -132,7 +155,7 @@ const moisture: ColumnDef<DefectRow> = {
 const repeat: ColumnDef<DefectRow> = {
   id: 'repeat',
   header: 'Repeat',
-  cell: ({ row }) => <RepeatBadge d={row.original} />,
+  cell: ({ row }) => <RepeatCell d={row.original} />,
 };
 
 /** A defect status as its badge. */
@@ -252,6 +275,6 @@ export const defectColumnsNarrow: ColumnDef<DefectRow>[] = [
 ];
 
 /** Container width (px) from which the one-field-per-column layout fits. */
-export const DEFECT_WIDE_MIN_PX = 1240;
+export const DEFECT_WIDE_MIN_PX = 1300;
 /** Container width (px) below which the narrow (tablet portrait) layout is used. */
 export const DEFECT_NARROW_MAX_PX = 880;

@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { formatBuildMonth, formatCalendarDate, formatInstant, formatInstantDate, formatMinutes, formatMoneyMinor, plural } from './format';
 import { pageOf, pageSizeOf, splitList } from './FilterControls';
-import { pickDefectParams } from './queries';
 
 describe('formatCalendarDate / formatBuildMonth', () => {
   it('formats calendar dates without shifting them by a time zone', () => {
@@ -65,10 +64,5 @@ describe('URL state helpers', () => {
     expect(splitList('reported,diagnosing')).toEqual(['reported', 'diagnosing']);
     expect(splitList('')).toEqual([]);
     expect(splitList(',FL,')).toEqual(['FL']);
-  });
-  it('keeps only list parameters, in a fixed order', () => {
-    const p = pickDefectParams({ status: 'closed', foo: 'bar', page: '2', q: '', depot: 'GHQ' });
-    expect(p).toEqual({ page: '2', depot: 'GHQ', status: 'closed' });
-    expect(Object.keys(p)).toEqual(['page', 'depot', 'status']);
   });
 });

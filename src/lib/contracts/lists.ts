@@ -37,20 +37,36 @@ export const VehicleListQuery = ListQueryBase.extend({
 });
 export type VehicleListQuery = z.infer<typeof VehicleListQuery>;
 
+const flagParam = (name: string) => z.enum(['1', '0', 'true', 'false'], `${name} must be 1, 0, true or false`);
+const dayParam = (name: string) =>
+  z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}([T ][0-9:.]+(Z|[+-]\d{2}:?\d{2})?)?$/, `${name} must be a date YYYY-MM-DD (or an ISO date-time)`);
+
+/** Age choices the Defects list offers (days since reported); the API takes any whole number of days 1–3650. */
+export const DEFECT_AGE_DAYS = [7, 14, 30, 90] as const;
+
+/**
+ * Query of GET /api/defects (and of its CSV export): paging, sort, search and the filters. Multi-value filters
+ * (status, position, moisture, module, depot) are comma-separated; `olderThanDays` keeps defects reported more
+ * than that many days ago (with `open=1`: open longer than that); `reportedFrom`/`reportedTo` are inclusive UTC days.
+ */
 export const DefectListQuery = ListQueryBase.extend({
   vin: z.string().max(32).optional(),
   ref: z.string().max(40).optional(),
   status: z.string().max(200).optional(),
-  module: z.string().max(32).optional(),
+  module: z.string().max(200).optional(),
   position: z.string().max(40).optional(),
   moisture: z.string().max(80).optional(),
-  repeat: z.enum(['1', '0', 'true', 'false']).optional(),
-  open: z.enum(['1', '0', 'true', 'false']).optional(),
-  mine: z.enum(['1', '0', 'true', 'false']).optional(),
-  vehicleId: z.string().regex(/^\d+$/).transform(Number).optional(),
-  reportedFrom: z.string().max(40).optional(),
-  reportedTo: z.string().max(40).optional(),
+  repeat: flagParam('repeat').optional(),
+  open: flagParam('open').optional(),
+  mine: flagParam('mine').optional(),
+  vehicleId: z.string().regex(/^\d+$/, 'vehicleId must be a whole number').transform(Number).optional(),
+  olderThanDays: intParam('olderThanDays', 1, 3650).optional(),
+  reportedFrom: dayParam('reportedFrom').optional(),
+  reportedTo: dayParam('reportedTo').optional(),
 });
+/** A parsed defect list query. */
 export type DefectListQuery = z.infer<typeof DefectListQuery>;
 
 export const SimpleListQuery = ListQueryBase;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readCsv } from '@/lib/imports/csv-read';
 import { IMPORT_COLUMNS, validateRows } from '@/lib/imports/rows';
-import { buildDefectsCsv, DEFECT_CSV_COLUMNS, defectsCsvFileName, type DefectCsvSource } from './csv-export';
+import { buildDefectsCsv, DEFECT_CSV_COLUMNS, defectsCsvFileName, type DefectCsvSource } from './defects-csv';
 
 const closed: DefectCsvSource = {
   ref: 'DF-26-00323',

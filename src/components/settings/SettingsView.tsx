@@ -1,0 +1,180 @@
+/**
+ * The Settings island (admins): the repeat-repair window. A preview says how many defects the new window would
+ * change before anything is written; saving recomputes every vehicle's repeat links in one transaction.
+ */
+import { useEffect, useState } from 'react';
+import { QueryClientProvider } from '@tanstack/react-query';
+import { queryClient } from '@/lib/client/query-client';
+import { ApiError } from '@/lib/client/api-client';
+import { FormField, fieldAria } from '@/components/ui/FormField';
+import { formatInstant } from '@/components/defects/format';
+import { REPEAT_WINDOW_MAX_DAYS, REPEAT_WINDOW_MIN_DAYS, type SettingsChangeResult } from '@/lib/contracts/settings';
+import { useChangeSettings, useSettings } from './queries';
+
+const fmt = (n: number) => n.toLocaleString('en-GB');
+
+/** The client-side check of the field (the API checks again). */
+function checkDays(text: string): { days: number } | { error: string } {
+  if (!/^\d+$/.test(text.trim())) return { error: 'Enter a whole number of days.' };
+  const days = Number(text.trim());
+  if (days < REPEAT_WINDOW_MIN_DAYS || days > REPEAT_WINDOW_MAX_DAYS) return { error: `Between ${REPEAT_WINDOW_MIN_DAYS} and ${fmt(REPEAT_WINDOW_MAX_DAYS)} days.` };
+  return { days };
+}
+
+function Outcome({ r }: { r: SettingsChangeResult }) {
+  const { defectsChanged, repeatsBefore, repeatsAfter, vehiclesChecked } = r.recompute;
+  const what = `${fmt(defectsChanged)} ${defectsChanged === 1 ? 'defect' : 'defects'}`;
+  return (
+    <div role="status" className={`rounded-md border px-4 py-3 text-sm ${r.dryRun ? 'border-seep-500/40 bg-seep-50 text-seep-700' : 'border-moss-600/40 bg-moss-50 text-moss-700'}`}>
+      {r.dryRun ? (
+        <p>
+          <strong>Preview, nothing saved:</strong> a window of {fmt(r.settings.repeatWindowDays)} days would change the repeat link of {what}; repeats would go
+          from {fmt(repeatsBefore)} to {fmt(repeatsAfter)}.
+        </p>
+      ) : (
+        <p>
+          <strong>Saved.</strong> The repeat window is now {fmt(r.settings.repeatWindowDays)} days. Repeat links were recomputed on {fmt(vehiclesChecked)} vehicles: {what}{' '}
+          changed; repeats went from {fmt(repeatsBefore)} to {fmt(repeatsAfter)}.
+        </p>
+      )}
+    </div>
+  );
+}
+
+function SettingsForm() {
+  const settings = useSettings();
+  const change = useChangeSettings();
+  const [text, setText] = useState('');
+  const [fieldError, setFieldError] = useState<string | undefined>();
+  const [result, setResult] = useState<SettingsChangeResult | null>(null);
+  const current = settings.data?.repeatWindowDays;
+
+  useEffect(() => {
+    if (current !== undefined && text === '') setText(String(current));
+  }, [current, text]);
+
+  const run = (dryRun: boolean) => {
+    const c = checkDays(text);
+    if ('error' in c) {
+      setFieldError(c.error);
+      return;
+    }
+    setFieldError(undefined);
+    change.mutate(
+      { patch: { repeatWindowDays: c.days }, dryRun },
+      {
+        onSuccess: (r) => setResult(r),
+        onError: (e) => {
+          setResult(null);
+          if (e instanceof ApiError && e.issues[0]) setFieldError(e.issues[0].message);
+        },
+      },
+    );
+  };
+
+  const parsed = checkDays(text);
+  const unchanged = 'days' in parsed && parsed.days === current;
+  const formError = change.error && !(change.error instanceof ApiError && change.error.issues.length) ? change.error.message : null;
+
+  return (
+    <div className="space-y-5">
+      <section className="card card-pad space-y-4" aria-labelledby="repeat-window-h">
+        <div>
+          <h2 id="repeat-window-h">Repeat-repair window</h2>
+          <p className="mt-1 max-w-prose text-sm text-ink-600">
+            A defect is a repeat when the same vehicle had an earlier defect on the same door and module function that was closed no more than this
+            many days before the new one was reported. Repeats are flagged on the Defects list and on each defect, and counted on the Overview. Changing the window recomputes the repeat link of
+            every defect at once.
+          </p>
+        </div>
+        <form
+          className="flex flex-wrap items-start gap-3"
+          onSubmit={(e) => {
+            e.preventDefault();
+            run(false);
+          }}
+        >
+          <FormField id="repeat-window" label="Window in days" error={fieldError} hint={current !== undefined ? `In force: ${current} days (default 90)` : undefined} className="w-56">
+            <input
+              {...fieldAria('repeat-window', fieldError, current !== undefined)}
+              className="input"
+              inputMode="numeric"
+              value={text}
+              onChange={(e) => {
+                setText(e.target.value);
+                setResult(null);
+              }}
+              disabled={settings.isPending}
+            />
+          </FormField>
+          <div className="flex flex-wrap gap-3 sm:mt-6">
+            <button type="button" className="btn-secondary" disabled={change.isPending || settings.isPending || unchanged} onClick={() => run(true)}>
+              Preview the effect
+            </button>
+            <button type="submit" className="btn-primary" disabled={change.isPending || settings.isPending || unchanged}>
+              {change.isPending && !change.variables?.dryRun ? 'Recomputing…' : 'Save and recompute'}
+            </button>
+          </div>
+        </form>
+        {result && <Outcome r={result} />}
+        {formError && (
+          <p role="alert" className="text-sm text-brick-700">
+            {formError}
+          </p>
+        )}
+        {settings.error && (
+          <p role="alert" className="text-sm text-brick-700">
+            The settings could not be loaded: {settings.error.message}
+          </p>
+        )}
+      </section>
+
+      <section className="card" aria-labelledby="settings-history-h">
+        <div className="border-b border-ink-200 px-4 py-3">
+          <h2 id="settings-history-h">Recent changes</h2>
+        </div>
+        <div className="table-wrap">
+          <table className="data-table">
+            <caption className="sr-only">Recent changes of settings</caption>
+            <thead>
+              <tr>
+                <th>When</th>
+                <th>Who</th>
+                <th>Change</th>
+              </tr>
+            </thead>
+            <tbody>
+              {(settings.data?.changes ?? []).map((c, i) => (
+                <tr key={`${c.at}-${i}`}>
+                  <td className="whitespace-nowrap">{formatInstant(c.at)}</td>
+                  <td>{c.who}</td>
+                  <td>
+                    {c.action === 'recompute_repeats'
+                      ? `Repeat links recomputed: ${c.newValue ?? ''} (was ${c.oldValue ?? '–'})`
+                      : `Repeat window ${c.oldValue ?? '–'} → ${c.newValue ?? '–'} days`}
+                  </td>
+                </tr>
+              ))}
+              {settings.data && (settings.data.changes ?? []).length === 0 && (
+                <tr>
+                  <td colSpan={3} className="text-ink-500">
+                    No changes yet: the defaults are in force.
+                  </td>
+                </tr>
+              )}
+            </tbody>
+          </table>
+        </div>
+      </section>
+    </div>
+  );
+}
+
+/** Island root. */
+export default function SettingsView() {
+  return (
+    <QueryClientProvider client={queryClient}>
+      <SettingsForm />
+    </QueryClientProvider>
+  );
+}

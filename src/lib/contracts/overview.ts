@@ -1,0 +1,72 @@
+/**
+ * Response of GET /api/overview (and the Overview page's props): the caller's open work and where faults come
+ * back, aggregated on the server over the depots they may see. Windows are UTC calendar days so that each
+ * figure equals the count of the Defects list filtered by its link (src/lib/overview/links.ts).
+ */
+
+/** The open statuses, in workflow order. */
+export const OPEN_STATUSES = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'] as const;
+/** One open status. */
+export type OpenStatus = (typeof OPEN_STATUSES)[number];
+
+/** Reported and repeat counts over a window. */
+export type RepeatCounts = { reported: number; repeats: number; rate: number | null };
+
+/** One depot in the caller's scope. */
+export type OverviewDepot = RepeatCounts & {
+  code: string;
+  name: string;
+  /** Open defects by status (every open status present, zeros included). */
+  open: Record<OpenStatus, number>;
+  openTotal: number;
+  vehiclesInService: number;
+  offRoad: number;
+};
+
+/** One module type with defects reported in the window. */
+export type OverviewModule = RepeatCounts & { code: string; name: string };
+
+/** One month of the repeat-rate trend. */
+export type OverviewMonth = RepeatCounts & { month: string; from: string; to: string };
+
+/** One open defect in the short lists (oldest first). */
+export type OverviewDefect = {
+  id: number;
+  ref: string;
+  status: string;
+  reportedAt: string;
+  ageDays: number;
+  position: string;
+  vin: string;
+  fleetNumber: string | null;
+  depotCode: string;
+  moduleCode: string;
+  symptom: string | null;
+  repeatOfId: number | null;
+  repeatOfRef: string | null;
+};
+
+/** Body of GET /api/overview. */
+export type OverviewResponse = {
+  asOf: string;
+  /** What the caller sees: their role, whether every depot, and the repeat window in force. */
+  role: string;
+  allDepots: boolean;
+  repeatWindowDays: number;
+  /** First day (UTC) of the twelve-month window of the repeat and module figures. */
+  windowFrom: string;
+  /** Age (days) of the "open for long" figure. */
+  staleDays: number;
+  vehiclesInService: number;
+  offRoad: number;
+  openTotal: number;
+  openStale: number;
+  openByStatus: Record<OpenStatus, number>;
+  window: RepeatCounts;
+  depots: OverviewDepot[];
+  modules: OverviewModule[];
+  trend: OverviewMonth[];
+  oldest: OverviewDefect[];
+  /** The caller's own open defects (assigned to or reported by them); null for roles that do not work defects. */
+  mine: { total: number; items: OverviewDefect[] } | null;
+};

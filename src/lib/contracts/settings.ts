@@ -1,0 +1,41 @@
+/**
+ * Settings an admin can change (GET/PATCH /api/settings). Only settings that change what the product does:
+ * today the repeat-repair window. Edit together with src/server/settings.ts when adding one.
+ */
+import { z } from 'zod';
+
+/** Bounds of the repeat-repair window, in days (one day to ten years). */
+export const REPEAT_WINDOW_MIN_DAYS = 1;
+/** Upper bound of the repeat-repair window, in days. */
+export const REPEAT_WINDOW_MAX_DAYS = 3650;
+
+/** Body of PATCH /api/settings: the fields to change (unknown keys are refused). */
+export const SettingsPatchSchema = z.strictObject({
+  repeatWindowDays: z
+    .number('repeatWindowDays must be a number of days')
+    .int('repeatWindowDays must be a whole number of days')
+    .min(REPEAT_WINDOW_MIN_DAYS, `repeatWindowDays must be at least ${REPEAT_WINDOW_MIN_DAYS}`)
+    .max(REPEAT_WINDOW_MAX_DAYS, `repeatWindowDays must be at most ${REPEAT_WINDOW_MAX_DAYS}`),
+});
+/** A validated settings change. */
+export type SettingsPatch = z.infer<typeof SettingsPatchSchema>;
+
+/** Query of PATCH /api/settings: `dryRun=1` works out the effect and writes nothing. */
+export const SettingsPatchQuery = z.object({ dryRun: z.enum(['1', '0', 'true', 'false'], 'dryRun must be 1 or 0').optional() });
+
+/** The settings in force. */
+export type Settings = { repeatWindowDays: number };
+
+/** Answer of PATCH /api/settings: the settings and what the repeat recompute changed. */
+export type SettingsChangeResult = {
+  settings: Settings;
+  dryRun: boolean;
+  recompute: {
+    /** Defects whose repeat link was set, cleared or moved to another earlier defect. */
+    defectsChanged: number;
+    /** Repeats before and after. */
+    repeatsBefore: number;
+    repeatsAfter: number;
+    vehiclesChecked: number;
+  };
+};

@@ -1,0 +1,66 @@
+// The Settings page: admins only; a bad window is refused on the form; a preview of a new repeat window says
+// how many defects would change without writing anything (the other browser files share this database, so
+// this file never saves a change; saving is covered by tests/api/settings.test.ts).
+import Database from 'better-sqlite3';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { E2E_DB_PATH, loginAs, open, pathOf, useBrowser } from './fixtures';
+import { computeRepeats } from '../../src/lib/defects/repeat';
+
+const h = useBrowser();
+let db: Database.Database;
+beforeAll(() => {
+  db = new Database(E2E_DB_PATH, { readonly: true, fileMustExist: true });
+});
+afterAll(() => db?.close());
+
+/** Defects whose repeat link a window of `days` would change, worked out from the rows with the repeat rule. */
+function wouldChange(days: number): number {
+  const rows = db
+    .prepare(
+      `select x.id, x.vehicle_id as vehicleId, x.position, m.function as moduleFunction, x.reported_at as reportedAt, x.closed_at as closedAt,
+              x.status = 'cancelled' as cancelled, x.repeat_of_id as repeatOfId
+       from defects x join modules m on m.id = x.module_id`,
+    )
+    .all() as Array<{ id: number; vehicleId: number; position: string; moduleFunction: string; reportedAt: number; closedAt: number | null; cancelled: number; repeatOfId: number | null }>;
+  const links = computeRepeats(rows.map((r) => ({ ...r, cancelled: r.cancelled === 1 })), days);
+  return rows.filter((r) => (links.get(r.id) ?? null) !== r.repeatOfId).length;
+}
+
+describe('Settings', () => {
+  it('is for admins only: others go back to the Overview', async () => {
+    await loginAs(h.context, 'manager');
+    await open(h.page, '/settings');
+    await h.page.waitForURL((u) => u.pathname === '/');
+    expect(pathOf(h.page)).toBe('/');
+  });
+
+  it('refuses a window that is not a whole number of days in range', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'admin');
+    await open(page, '/settings');
+    const field = page.getByLabel('Window in days');
+    await expect.poll(() => field.inputValue()).toBe('90');
+    await field.fill('0');
+    await page.getByRole('button', { name: 'Preview the effect' }).click();
+    await page.getByText('Between 1 and 3,650 days.').waitFor();
+    expect(await field.getAttribute('aria-invalid')).toBe('true');
+  });
+
+  it('previews a shorter window with the number of defects it would change, writing nothing', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'admin');
+    await open(page, '/settings');
+    const field = page.getByLabel('Window in days');
+    await expect.poll(() => field.inputValue()).toBe('90');
+    const expected = wouldChange(45);
+    expect(expected).toBeGreaterThan(0);
+    await field.fill('45');
+    await page.getByRole('button', { name: 'Preview the effect' }).click();
+    const status = page.getByRole('status').filter({ hasText: 'Preview, nothing saved' });
+    await status.waitFor();
+    expect(await status.textContent()).toContain(`would change the repeat link of ${expected.toLocaleString('en-GB')} defects`);
+    expect((db.prepare("select count(*) as n from settings where key = 'repeat_window_days'").get() as { n: number }).n).toBe(0);
+    expect(wouldChange(90)).toBe(0);
+    await page.getByText('No changes yet: the defaults are in force.').waitFor();
+  });
+});
