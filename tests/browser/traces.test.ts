@@ -1,6 +1,6 @@
-// Traces as a technician: upload a capture on a defect and see the verdict and the plot; zoom the plot;
-// upload from the Traces page with upload progress; a file the analysis cannot use names its line; the
-// trace page on a 768 px tablet.
+// Traces as a technician: upload a capture on a defect and see the verdict and the plot; zoom the plot
+// (buttons, drag, wheel, pinch); upload from the Traces page with upload progress; a file the analysis
+// cannot use names its line; the trace page on a 768 px tablet.
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page, Request } from 'playwright-core';
 import { baseUrl, loginAs, open, useBrowser } from './fixtures';
@@ -162,7 +162,7 @@ describe('Traces', () => {
     expect(new URL(page.url()).pathname).toBe('/traces');
   });
 
-  it('looks right on a 768 px tablet: no sideways scrolling, usable zoom buttons, verdict first', async () => {
+  it('looks right on a 768 px tablet: no sideways scrolling, usable zoom buttons, pinch to zoom, verdict first', async () => {
     const page = h.page;
     await page.setViewportSize({ width: 768, height: 1024 });
     try {
@@ -178,6 +178,26 @@ describe('Traces', () => {
       const lane = (await page.locator('[data-lane="b"]').boundingBox())!;
       expect(lane.x + lane.width).toBeLessThanOrEqual(768);
       expect(lane.width).toBeGreaterThan(600);
+      // Pinch out with two fingers over lane A: zooms in around the fingers.
+      const cdp = await h.context.newCDPSession(page);
+      try {
+        await cdp.send('Emulation.setTouchEmulationEnabled', { enabled: true, maxTouchPoints: 2 });
+        await page.locator('[data-lane="a"]').scrollIntoViewIfNeeded();
+        const over = (await page.locator('[data-lane="a"] .u-over').boundingBox())!;
+        const cx = over.x + over.width / 2;
+        const cy = over.y + over.height / 2;
+        const fingers = (d: number) => [
+          { x: cx - d, y: cy, id: 1 },
+          { x: cx + d, y: cy, id: 2 },
+        ];
+        await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: fingers(20) });
+        for (let d = 30; d <= 80; d += 10) await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: fingers(d) });
+        await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+        await waitForWindow(page, /^50\.0 ms shown, from 75\.0 ms to 125 ms of 200 ms/);
+      } finally {
+        await cdp.send('Emulation.setTouchEmulationEnabled', { enabled: false });
+        await cdp.detach();
+      }
       const verdictTop = (await page.getByTestId('trace-verdict').boundingBox())!.y;
       const plotTop = (await page.getByRole('heading', { name: 'Both channels' }).boundingBox())!.y;
       expect(verdictTop).toBeLessThan(plotTop);
