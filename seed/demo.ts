@@ -66,6 +66,7 @@ export async function seedDemo(db: Db, opts: { seed?: number; today?: string } =
     },
     { behavior: 'immediate' },
   );
+  (await import('./traces')).seedTraces(db); // demo scope captures on a few defects, files under UPLOAD_DIR
 
   return {
     depots: data.depots.length,

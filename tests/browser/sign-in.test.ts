@@ -6,7 +6,7 @@ const h = useBrowser();
 
 // What each role sees in the side navigation and under its name (CONTRACT.md "Who may do what":
 // Import for admins and fleet managers, People and Settings for admins only).
-const BASE_NAV = ['Overview', 'Defects', 'Vehicles', 'Depots', 'Modules'];
+const BASE_NAV = ['Overview', 'Defects', 'Vehicles', 'Traces', 'Depots', 'Modules'];
 const EXPECTED: Record<Role, { label: string; nav: string[] }> = {
   admin: { label: 'Admin', nav: [...BASE_NAV, 'Import', 'People', 'Settings'] },
   manager: { label: 'Fleet manager', nav: [...BASE_NAV, 'Import'] },

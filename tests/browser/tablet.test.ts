@@ -30,7 +30,7 @@ async function expectNavReachable(page: Page, expected: string[]): Promise<void>
   await page.getByRole('link', { name: 'Sign out' }).filter({ visible: true }).first().waitFor();
 }
 
-const NAV = ['Overview', 'Defects', 'Vehicles', 'Depots', 'Modules'];
+const NAV = ['Overview', 'Defects', 'Vehicles', 'Traces', 'Depots', 'Modules'];
 
 describe('tablet portrait', () => {
   it('Overview fits the width and the navigation is reachable', async () => {

@@ -12,18 +12,21 @@
  * - a stuck channel reports lowV = highV = the level it rests at (its median), freqHz 0, dutyPct 100 when it rests high
  *   (above the other channel's mid level, or half the supply when both are stuck) and 0 when low,
  *   glitches 0; `edges` still counts the transitions it did make;
- * - when the phase cannot be measured (a channel stuck, or no A period holding a B edge), phaseDeg is 0 and
- *   direction 'none';
+ * - when the phase cannot be measured (a channel stuck, channels bridged, or no A period holding a B edge),
+ *   phaseDeg is 0 and direction 'none';
  * - rpm is null without pulsesPerRev or with both channels stuck; speedTrend is null with fewer than 4
  *   periods or an empty start/end window.
  * A capture whose switching channels hold fewer than two full periods throws CaptureError (line null).
  */
 import { CaptureError, type CaptureData } from './capture-parse';
-import { edgesOfPolarity } from './crossings';
+import { edgesOfPolarity, type EdgeTrain } from './crossings';
 import {
   DROPOUT_PERIOD_RATIO,
   GLITCH_FRACTION,
+  PERIOD_INLIER_FRACTION,
   STUCK_MIN_SWING_V,
+  computePulseMetrics,
+  countDropouts,
   measureChannel,
   median,
   type ChannelDetail,
@@ -128,6 +131,18 @@ export interface TraceAnalysis {
 
 /** Analyse a two-channel hall-sensor capture (time in seconds, channels in volts). */
 export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}): TraceAnalysis {
+  return analyzeCaptureDetail(capture, opts).analysis;
+}
+
+/** The analysis plus the transitions it found on each channel (what a plot marks as edges). */
+export interface TraceAnalysisDetail {
+  analysis: TraceAnalysis;
+  /** Hysteresis-qualified mid-reference transitions of each channel as found (glitch edges included). */
+  edges: { a: EdgeTrain; b: EdgeTrain };
+}
+
+/** analyzeCapture, keeping each channel's transitions for display. */
+export function analyzeCaptureDetail(capture: CaptureData, opts: AnalyzeOptions = {}): TraceAnalysisDetail {
   const { time, a, b } = capture;
   const n = time.length;
   if (a.length !== n || b.length !== n) throw new RangeError('time, a and b must have the same length');
@@ -179,6 +194,15 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
   }
 
   const bothLive = !stuck.a && !stuck.b;
+  // The two channels share one period. Where their median periods disagree, the channel that misses
+  // pulses is judged against the other's period (frequency, duty, dropouts and phase).
+  const sharedPeriod = bothLive && !bridged ? referencePeriods(detail.a, detail.b) : { a: undefined, b: undefined };
+  for (const k of keys) {
+    const ref = sharedPeriod[k];
+    if (ref === undefined) continue;
+    const d = detail[k];
+    detail[k] = { ...d, pulses: computePulseMetrics(d.clean, ref), dropouts: countDropouts(d.pulses.periodsS, DROPOUT_PERIOD_RATIO, ref) };
+  }
   const dropouts = { a: detail.a.dropouts, b: detail.b.dropouts };
   if (bothLive) {
     dropouts.a += silentEnds(detail.a, detail.b, startS, endS);
@@ -187,7 +211,9 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
 
   const risingA = edgesOfPolarity(detail.a.clean, true);
   const risingB = edgesOfPolarity(detail.b.clean, true);
-  const phase = bothLive ? computePhase(risingA, risingB) : null;
+  // Bridged channels carry one waveform: there is no phase between them and no direction to tell (and on
+  // a three-level bridge the middle level sits on the 50% line, so edge times there are noise).
+  const phase = bothLive && !bridged ? computePhase(risingA, risingB, sharedPeriod.a) : null;
   const phaseMeasured = phase !== null && phase.cycles > 0;
   const phaseDeg = phaseMeasured ? phase.phaseDeg : 0;
   const direction: Direction = phaseMeasured ? phase.direction : 'none';
@@ -272,7 +298,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
     noiseV: round(c.noiseV, 4),
     hysteresisV: round(c.hysteresisV, 3),
   });
-  return {
+  const analysis: TraceAnalysis = {
     samples: n,
     sampleRateHz: roundSig(sampleRateHz, 7),
     channels: { a: out(ca), b: out(cb) },
@@ -309,6 +335,7 @@ export function analyzeCapture(capture: CaptureData, opts: AnalyzeOptions = {}):
       speedChangePct: SPEED_CHANGE_PCT,
     },
   };
+  return { analysis, edges: { a: detail.a.raw, b: detail.b.raw } };
 }
 
 /**
@@ -331,6 +358,28 @@ function silentEnds(x: ChannelDetail, other: ChannelDetail, startS: number, endS
   if (first - startS > limit && edgesIn(startS, first) >= 2) count++;
   if (endS - last > limit && edgesIn(last, endS) >= 2) count++;
   return count;
+}
+
+/** Share of a channel's cycles that must lie near its median period for that median to be trusted. */
+export const CONSISTENT_CYCLE_SHARE = 0.5;
+
+/**
+ * Reference periods for channels whose median period disagrees with the other channel's by more than
+ * PERIOD_INLIER_FRACTION: the channel whose cycles sit more consistently around its median (the shorter
+ * median on a tie, since missing pulses are commoner than extra ones) sets the period for the other.
+ */
+function referencePeriods(a: ChannelDetail, b: ChannelDetail): { a: number | undefined; b: number | undefined } {
+  const ma = a.pulses.medianPeriodS;
+  const mb = b.pulses.medianPeriodS;
+  const none = { a: undefined, b: undefined };
+  if (!(ma > 0) || !(mb > 0)) return none;
+  if (Math.abs(ma - mb) <= PERIOD_INLIER_FRACTION * Math.min(ma, mb)) return none;
+  const share = (d: ChannelDetail): number => d.pulses.inlierCycles / Math.max(1, d.pulses.periodsS.length);
+  const sa = share(a);
+  const sb = share(b);
+  const trustA = sa > sb || (sa === sb && ma < mb);
+  if (trustA) return sa >= CONSISTENT_CYCLE_SHARE ? { a: undefined, b: ma } : none;
+  return sb >= CONSISTENT_CYCLE_SHARE ? { a: mb, b: undefined } : none;
 }
 
 /** Median frequency in the first and last SPEED_WINDOW_FRACTION of the capture. */

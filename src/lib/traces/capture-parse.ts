@@ -3,7 +3,8 @@
  * line (time, channel A, channel B), parsed straight from bytes into typed arrays.
  *
  * Accepted:
- * - UTF-8 with or without BOM; LF or CRLF line ends; blank lines anywhere are skipped.
+ * - UTF-8 with or without BOM (UTF-16 with a BOM is converted first); LF or CRLF line ends; blank lines
+ *   anywhere are skipped.
  * - Preamble lines (anything that is not a row of numbers) before the header row. The header is the last
  *   non-numeric line before the first numeric row; a file may also have no header (seconds and volts then).
  * - Header units: the time column's name carries `s`, `ms`, `us` or `µs` (e.g. `time (ms)`, `Time[us]`,
@@ -296,6 +297,11 @@ function lineShape(bytes: Uint8Array, start: number, end: number, delimiter: num
  * @throws CaptureError when the file holds nothing the analysis can use (see the module comment).
  */
 export function parseCapture(bytes: Uint8Array): CaptureParseResult {
+  // Spreadsheets also save "Unicode text" (UTF-16 with a byte-order mark): convert it to UTF-8 first.
+  if (bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))) {
+    const text = new TextDecoder(bytes[0] === 0xff ? 'utf-16le' : 'utf-16be').decode(bytes);
+    return parseCapture(new TextEncoder().encode(text));
+  }
   const n = bytes.length;
   let p = n >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
   let lineNo = 0;

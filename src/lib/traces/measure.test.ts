@@ -5,6 +5,7 @@ import {
   countDropouts,
   estimateNoiseV,
   highTimePct,
+  judgedPeriod,
   measureChannel,
   median,
   removeGlitches,
@@ -133,6 +134,33 @@ describe('countDropouts (period over 1.8x its local median)', () => {
 
   it('needs at least three periods', () => {
     expect(countDropouts([10, 30])).toBe(0);
+  });
+
+  it('judges a channel that misses half its pulses against the other channel\'s period', () => {
+    // Periods 20, 20, 10, 10: the channel's own median (15) hides both missing pulses; the other channel's 10 does not.
+    expect(countDropouts([20, 20, 10, 10])).toBe(0);
+    expect(countDropouts([20, 20, 10, 10], 1.8, 10)).toBe(2);
+    // A reference within 25% of the local median changes nothing (a motor changing speed keeps its own median).
+    expect(countDropouts([...Array(10).fill(10), 20, ...Array(10).fill(10)], 1.8, 12)).toBe(1);
+    expect(countDropouts([20, 10], 1.8, 10)).toBe(1);
+  });
+
+  it('judgedPeriod keeps the local median unless the reference differs by more than 25%', () => {
+    expect(judgedPeriod(15, 10)).toBe(10);
+    expect(judgedPeriod(12, 10)).toBe(12);
+    expect(judgedPeriod(12.5, 10)).toBe(12.5);
+    expect(judgedPeriod(15)).toBe(15);
+  });
+});
+
+describe('computePulseMetrics with a reference period', () => {
+  it('averages the cycles near the reference instead of its own median (rises 0, 20, 40, 50, 60 ms; width 3 ms)', () => {
+    const t = train([0, 3, 20, 23, 40, 43, 50, 53, 60]);
+    expect(computePulseMetrics(t).freqHz).toBe(0); // median 15 ms: no period within 25%
+    const m = computePulseMetrics(t, 0.01);
+    expect(m.inlierCycles).toBe(2);
+    expect(m.freqHz).toBeCloseTo(100, 9);
+    expect(m.dutyPct).toBeCloseTo(30, 9);
   });
 });
 

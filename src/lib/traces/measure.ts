@@ -80,8 +80,12 @@ export function median(values: ArrayLike<number>, count?: number): number {
   return (copy[(n - 1) >> 1]! + copy[n >> 1]!) / 2;
 }
 
-/** Periods, widths, frequency and duty cycle of an alternating edge train. */
-export function computePulseMetrics(train: EdgeTrain): PulseMetrics {
+/**
+ * Periods, widths, frequency and duty cycle of an alternating edge train. With `referencePeriodS` (the
+ * other channel's median period, when this channel misses so many pulses that its own median is no longer
+ * the encoder's period) the cycles averaged are those within 25% of the reference instead.
+ */
+export function computePulseMetrics(train: EdgeTrain, referencePeriodS?: number): PulseMetrics {
   const t = train.timesS;
   const n = t.length;
   const risingCount = train.firstRising ? Math.ceil(n / 2) : Math.floor(n / 2);
@@ -104,11 +108,12 @@ export function computePulseMetrics(train: EdgeTrain): PulseMetrics {
     duty[k] = width / period;
   }
   const medianPeriodS = median(periodsS);
+  const centre = referencePeriodS !== undefined && referencePeriodS > 0 ? referencePeriodS : medianPeriodS;
   let sumPeriod = 0;
   let sumDuty = 0;
   let inliers = 0;
   for (let k = 0; k < cycles; k++) {
-    if (Math.abs(periodsS[k]! - medianPeriodS) <= PERIOD_INLIER_FRACTION * medianPeriodS) {
+    if (Math.abs(periodsS[k]! - centre) <= PERIOD_INLIER_FRACTION * centre) {
       sumPeriod += periodsS[k]!;
       sumDuty += duty[k]!;
       inliers++;
@@ -183,12 +188,25 @@ export function removeGlitches(train: EdgeTrain, fraction = GLITCH_FRACTION): Gl
 }
 
 /**
- * Count dropouts: periods longer than `ratio` times, or shorter than DROPOUT_SHORT_PERIOD_RATIO times, the
- * median of the periods around them (DROPOUT_NEIGHBOURS on each side, itself included).
+ * The period a cycle is judged against: the local median, unless a reference period (the other channel's
+ * median) is given and differs from it by more than PERIOD_INLIER_FRACTION, in which case the reference.
+ * A channel that misses (or breaks) many pulses has a misleading median of its own; the two channels of a
+ * quadrature encoder share one period.
  */
-export function countDropouts(periodsS: ArrayLike<number>, ratio = DROPOUT_PERIOD_RATIO): number {
+export function judgedPeriod(localS: number, referencePeriodS?: number): number {
+  if (referencePeriodS === undefined || !(referencePeriodS > 0)) return localS;
+  return Math.abs(localS - referencePeriodS) > PERIOD_INLIER_FRACTION * referencePeriodS ? referencePeriodS : localS;
+}
+
+/**
+ * Count dropouts: periods longer than `ratio` times, or shorter than DROPOUT_SHORT_PERIOD_RATIO times, the
+ * median of the periods around them (DROPOUT_NEIGHBOURS on each side, itself included), or the reference
+ * period where that median disagrees with it (judgedPeriod).
+ */
+export function countDropouts(periodsS: ArrayLike<number>, ratio = DROPOUT_PERIOD_RATIO, referencePeriodS?: number): number {
   const n = periodsS.length;
-  if (n < 3) return 0;
+  const withReference = referencePeriodS !== undefined && referencePeriodS > 0;
+  if (n < (withReference ? 1 : 3)) return 0;
   const window = new Float64Array(2 * DROPOUT_NEIGHBOURS + 1);
   let dropouts = 0;
   for (let k = 0; k < n; k++) {
@@ -205,7 +223,7 @@ export function countDropouts(periodsS: ArrayLike<number>, ratio = DROPOUT_PERIO
       }
       window[q] = x;
     }
-    const local = (window[(w - 1) >> 1]! + window[w >> 1]!) / 2;
+    const local = judgedPeriod((window[(w - 1) >> 1]! + window[w >> 1]!) / 2, referencePeriodS);
     if (periodsS[k]! > ratio * local || periodsS[k]! < DROPOUT_SHORT_PERIOD_RATIO * local) dropouts++;
   }
   return dropouts;

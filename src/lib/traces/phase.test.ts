@@ -40,6 +40,23 @@ describe('computePhase', () => {
     expect(p.phaseDeg).toBeCloseTo(90, 6);
   });
 
+  it('leaves out an A period holding a missing A pulse (20 ms among 10 ms periods)', () => {
+    // Without the check the 20 ms period would give 2.5 / 20 x 360 = 45 degrees and pull the mean.
+    const p = computePhase(ms([0, 10, 30, 40, 50]), ms([2.5, 12.5, 22.5, 32.5, 42.5]));
+    expect(p.cycles).toBe(3);
+    expect(p.phaseDeg).toBeCloseTo(90, 6);
+  });
+
+  it('uses B\'s period as the reference when A misses so many pulses that its own median misleads', () => {
+    // A periods 20, 20, 10, 10 (median 15 ms): only the 10 ms periods are whole; B's period is 10 ms.
+    const rising = ms([0, 20, 40, 50, 60]);
+    const b = ms([2.5, 12.5, 22.5, 32.5, 42.5, 52.5]);
+    expect(computePhase(rising, b).cycles).toBe(0);
+    const p = computePhase(rising, b, 0.01);
+    expect(p.cycles).toBe(2);
+    expect(p.phaseDeg).toBeCloseTo(90, 6);
+  });
+
   it('reports phase 0 and direction none with nothing to pair', () => {
     const p = computePhase(ms([0]), ms([2.5]));
     expect(p).toMatchObject({ phaseDeg: 0, direction: 'none', cycles: 0 });

@@ -2,8 +2,8 @@
  * Relation between the two encoder channels (REFERENCES.md section 9): phase offset in electrical degrees,
  * direction, correlation, and an x4 quadrature decoder.
  *
- * - Lag: for each full A period (rising edge to rising edge), the first B rising edge at or after the A
- *   rising edge gives lag = 360 x (tB - tA) / periodA, in [0, 360). Lags are combined by a circular mean,
+ * - Lag: for each full A period (rising edge to rising edge) within 25% of the local median A period, the first
+ *   B rising edge at or after the A rising edge gives lag = 360 x (tB - tA) / periodA, in [0, 360). Lags are combined by a circular mean,
  *   so values around 0/360 average correctly. A lag of 90 means B lags A a quarter period (A leads); 270
  *   (= -90) means B leads.
  * - phaseDeg (CONTRACT.md): how far B lags A, folded to 0-180, with `direction` saying which channel
@@ -33,16 +33,41 @@ export interface PhaseResult {
   spreadDeg: number;
 }
 
-/** Phase of B relative to A from the rising-edge instants of each (seconds, increasing). */
-export function computePhase(risingA: ArrayLike<number>, risingB: ArrayLike<number>): PhaseResult {
+/** A periods further than this fraction from their median are left out of the phase (a missing or broken A pulse). */
+export const PHASE_PERIOD_INLIER_FRACTION = 0.25;
+/** A periods on each side that make up the local median. */
+const PHASE_NEIGHBOURS = 4;
+
+/** Median of an array (NaN when empty). */
+function medianOf(values: Float64Array): number {
+  if (values.length === 0) return NaN;
+  const copy = Float64Array.from(values).sort();
+  return (copy[(copy.length - 1) >> 1]! + copy[copy.length >> 1]!) / 2;
+}
+
+/**
+ * Phase of B relative to A from the rising-edge instants of each (seconds, increasing). Only A periods
+ * within PHASE_PERIOD_INLIER_FRACTION of the median of the A periods around them (or of `referencePeriodS`, B's median
+ * period, where that median disagrees with it by more than the same fraction) are used, and only those holding a B edge.
+ */
+export function computePhase(risingA: ArrayLike<number>, risingB: ArrayLike<number>, referencePeriodS?: number): PhaseResult {
   let sumCos = 0;
   let sumSin = 0;
   let cycles = 0;
   let j = 0;
   const nb = risingB.length;
+  const periods = new Float64Array(Math.max(0, risingA.length - 1));
+  for (let k = 0; k < periods.length; k++) periods[k] = risingA[k + 1]! - risingA[k]!;
   for (let k = 0; k + 1 < risingA.length; k++) {
     const t0 = risingA[k]!;
-    const period = risingA[k + 1]! - t0;
+    const period = periods[k]!;
+    // A missed a pulse here (or one was broken): the angle would be taken against the wrong period. The
+    // median is local (PHASE_NEIGHBOURS each side) so that a motor changing speed keeps all its cycles.
+    let local = medianOf(periods.subarray(Math.max(0, k - PHASE_NEIGHBOURS), Math.min(periods.length, k + PHASE_NEIGHBOURS + 1)));
+    if (referencePeriodS !== undefined && referencePeriodS > 0 && Math.abs(local - referencePeriodS) > PHASE_PERIOD_INLIER_FRACTION * referencePeriodS) {
+      local = referencePeriodS; // A misses so many pulses that its own median misleads; B's period is the encoder's
+    }
+    if (Math.abs(period - local) > PHASE_PERIOD_INLIER_FRACTION * local) continue;
     while (j < nb && risingB[j]! < t0) j++;
     if (j >= nb) break;
     const lag = risingB[j]! - t0;

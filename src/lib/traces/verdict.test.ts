@@ -139,6 +139,26 @@ describe('computeVerdict messages for technicians', () => {
   });
 });
 
+describe('computeVerdict finding parts', () => {
+  it('gives every finding a title, what it means, its usual cause and what to check next, joined into the message', () => {
+    const r = computeVerdict(
+      input({ phaseDeg: 150, speedTrend: { startHz: 200, endHz: 150, changePct: -25 } }, { glitches: 1, dutyPct: 20 }, { dropouts: 2, highV: 2, lowV: 1.7 }),
+    );
+    for (const f of r.findings) {
+      expect(f.title.length).toBeGreaterThan(10);
+      expect(f.cause).not.toBeNull();
+      expect(f.message).toBe(`${f.meaning} Usual cause: ${f.cause} Check next: ${f.check}`);
+    }
+    expect(r.findings.find((f) => f.code === 'glitches')!.title).toBe('Glitches on channel A');
+  });
+
+  it('a healthy capture has no cause, only what to check if the window still misbehaves', () => {
+    const f = computeVerdict(input()).findings[0]!;
+    expect(f.cause).toBeNull();
+    expect(f.message).toBe(`${f.meaning} Check next: ${f.check}`);
+  });
+});
+
 describe('assumeSupplyV', () => {
   it('assumes 5 V below a 6 V high state and 12 V from 6 V up', () => {
     expect(assumeSupplyV(4.9)).toBe(5);

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { handle, HttpError, invalid, json, methodNotAllowed, readQuery, tooLarge } from '@/server/http';
 import { actorOf, requirePermission } from '@/server/auth';
 import { listTraces, MAX_TRACE_UPLOAD_BYTES, storeTrace } from '@/server/traces/store';
+import { TraceListQuery } from '@/lib/contracts/traces';
 
 const positive = (name: string) =>
   z
@@ -46,17 +47,11 @@ export const POST = handle(async (ctx) => {
   return json(storeTrace(user, bytes, file.name || null, parsed.data, actorOf(user)), 201);
 });
 
-const TraceListQuery = z.object({
-  defectId: z.string().regex(/^\d+$/).transform(Number).optional(),
-  page: z.string().regex(/^\d+$/).transform(Number).pipe(z.number().int().min(1)).optional(),
-  pageSize: z.string().regex(/^\d+$/).transform(Number).pipe(z.number().int().min(1).max(200)).optional(),
-});
-
-/** Stored traces in the caller's depots, newest first. */
+/** Stored traces in the caller's depots, newest first (filters: defectId, verdict, depot code). */
 export const GET = handle((ctx) => {
   const user = requirePermission(ctx, 'read');
   const q = readQuery(ctx, TraceListQuery);
-  return json(listTraces(user, { defectId: q.defectId, page: q.page ?? 1, pageSize: q.pageSize ?? 50 }));
+  return json(listTraces(user, { defectId: q.defectId, verdict: q.verdict, depot: q.depot, page: q.page ?? 1, pageSize: q.pageSize ?? 50 }));
 });
 
 export const ALL = methodNotAllowed('GET, POST');

@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest';
+import { formatChangePct, formatDeg, formatHz, formatPct, formatRpm, formatSampleRate, formatSpan, formatVolts } from './format';
+
+describe('trace figure formatting', () => {
+  it('formats frequencies to four significant digits, switching to kHz', () => {
+    expect(formatHz(200)).toBe('200.0 Hz');
+    expect(formatHz(47.123)).toBe('47.12 Hz');
+    expect(formatHz(1234.5)).toBe('1.235 kHz');
+    expect(formatHz(12_500)).toBe('12.50 kHz');
+    expect(formatHz(0)).toBe('–');
+  });
+  it('formats sample rates, durations, volts, percent, degrees, rpm and changes', () => {
+    expect(formatSampleRate(1_000_000)).toBe('1 MS/s');
+    expect(formatSampleRate(20_480)).toBe('20.5 kS/s');
+    expect(formatSampleRate(500)).toBe('500 S/s');
+    expect(formatVolts(4.9812)).toBe('4.98 V');
+    expect(formatPct(49.84)).toBe('49.8%');
+    expect(formatPct(NaN)).toBe('–');
+    expect(formatDeg(90.04)).toBe('90.0°');
+    expect(formatRpm(6000)).toBe('6,000 rpm');
+    expect(formatChangePct(-12.5)).toBe('−12.5%');
+    expect(formatChangePct(3)).toBe('+3.0%');
+  });
+});
+
+
+describe('formatSpan (plot readout)', () => {
+  it('gives three significant digits in the largest unit that keeps the number at 1 or more', () => {
+    expect(formatSpan(0.2)).toBe('200 ms');
+    expect(formatSpan(0.09999999)).toBe('100 ms');
+    expect(formatSpan(0.05)).toBe('50.0 ms');
+    expect(formatSpan(0.0009999)).toBe('1.00 ms');
+    expect(formatSpan(0.000473)).toBe('473 µs');
+    expect(formatSpan(1.5)).toBe('1.50 s');
+    expect(formatSpan(12.345)).toBe('12.3 s');
+    expect(formatSpan(0)).toBe('0 ms');
+  });
+});

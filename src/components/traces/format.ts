@@ -1,0 +1,61 @@
+/** Number formatting of trace figures (volts, hertz, percent, degrees, rpm, sample rates, durations). */
+
+const n = (x: number, digits: number) => x.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+
+/** Volts with two decimals: "4.98 V". */
+export function formatVolts(v: number): string {
+  return `${n(v, 2)} V`;
+}
+
+/** A frequency with four significant digits: "200.0 Hz", "1.234 kHz"; 0 as "–" (no switching). */
+export function formatHz(hz: number): string {
+  if (!(hz > 0)) return '–';
+  if (hz >= 1000) return `${n(hz / 1000, Math.max(0, 3 - Math.floor(Math.log10(hz / 1000))))} kHz`;
+  return `${n(hz, Math.max(0, 3 - Math.floor(Math.log10(hz))))} Hz`;
+}
+
+/** A sample rate: "100 kS/s", "1 MS/s", "20.5 kS/s". */
+export function formatSampleRate(hz: number): string {
+  const fmt = (x: number) => Number(x.toPrecision(3)).toLocaleString('en-GB');
+  if (hz >= 1e6) return `${fmt(hz / 1e6)} MS/s`;
+  if (hz >= 1e3) return `${fmt(hz / 1e3)} kS/s`;
+  return `${fmt(hz)} S/s`;
+}
+
+/** Percent with one decimal: "49.8%". */
+export function formatPct(p: number): string {
+  return Number.isFinite(p) ? `${n(p, 1)}%` : '–';
+}
+
+/** Degrees with one decimal: "90.2°". */
+export function formatDeg(d: number): string {
+  return `${n(d, 1)}°`;
+}
+
+/** A signed change in percent: "−12.5%", "+3.0%". */
+export function formatChangePct(p: number): string {
+  const sign = p > 0 ? '+' : p < 0 ? '−' : '';
+  return `${sign}${n(Math.abs(p), 1)}%`;
+}
+
+/** Revolutions per minute: "6,000 rpm". */
+export function formatRpm(rpm: number): string {
+  return `${n(rpm, 0)} rpm`;
+}
+
+/** Bytes in words: "812 B", "4.2 KB", "48.0 MB". */
+export function formatBytes(b: number): string {
+  if (b < 1024) return `${b} B`;
+  if (b < 1024 * 1024) return `${(b / 1024).toFixed(1)} KB`;
+  return `${(b / 1024 / 1024).toFixed(1)} MB`;
+}
+
+/** A duration in words for the readout, three significant digits: "12.5 ms", "840 µs", "1.20 s", "0 ms". */
+export function formatSpan(s: number): string {
+  if (s === 0) return '0 ms';
+  for (const [scale, unit] of [[1, 's'], [1e3, 'ms'], [1e6, 'µs']] as const) {
+    const text = (s * scale).toPrecision(3);
+    if (Math.abs(Number(text)) >= 1 && !text.includes('e')) return `${text} ${unit}`;
+  }
+  return `${(s * 1e9).toPrecision(3)} ns`;
+}
