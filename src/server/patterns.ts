@@ -12,6 +12,7 @@ import { parseIsoDate } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { depotScope } from './list-helpers';
 import { invalid, notFound } from './http';
+import { recordMatcher } from './patterns-records';
 
 /** Replicates and seed of the report's Monte Carlo (fixed so that a report is reproducible). */
 export const REPORT_REPLICATES = 999;
@@ -22,7 +23,7 @@ const cache = new Map<string, Cached>();
 const CACHE_MAX = 32;
 
 /** A fingerprint of the data the engine reads; changes whenever a vehicle, defect, depot or module changes. */
-function dataVersion(): string {
+export function dataVersion(): string {
   const db = getDb();
   const row = db.get<{ v: string }>(sql`select
     (select count(*) || ':' || coalesce(max(updated_at), 0) from defects) || '|' ||
@@ -101,12 +102,19 @@ export function getPatternsReport(user: SessionUser, asOf: string): PatternsRepo
   );
 }
 
-/** The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras). */
-export function patternsResponse(report: PatternsReport) {
+/** Everyone's scope: the fleet-wide report that pattern records are kept from (and the CLI's view). */
+export const FLEET_WIDE: SessionUser = { id: 0, email: 'system', name: 'Seepline', role: 'admin', depotIds: null, via: 'token' };
+
+/**
+ * The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras), with the
+ * pattern record each cohort belongs to (`record`, null when none) among the records the caller may see.
+ */
+export function patternsResponse(report: PatternsReport, user: SessionUser = FLEET_WIDE) {
+  const recordOf = recordMatcher(user);
   return {
     ...report,
     asOf: report.asOf,
-    cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => c),
+    cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => ({ ...c, record: recordOf(c) })),
   };
 }
 
