@@ -19,7 +19,15 @@ import {
   type PatternStatus,
 } from '@/lib/patterns/records';
 import type { ModuleBaseline, PatternCohort, PatternsReport } from '@/lib/patterns/types';
-import type { PatternRecordsQuery, PatternStatusChange } from '@/lib/contracts/patterns';
+import type {
+  CohortRecordRef,
+  PatternRecordDetail,
+  PatternRecordsQuery,
+  PatternRecordsResponse,
+  PatternRecordSummary,
+  PatternStatusChange,
+  PatternSyncResponse,
+} from '@/lib/contracts/patterns';
 import { can } from '@/lib/auth/permissions';
 import type { SessionUser } from './auth';
 import { conflict, notFound } from './http';
@@ -55,7 +63,7 @@ function latestSync() {
   return getDb().select().from(patternSyncs).orderBy(desc(patternSyncs.id)).limit(1).get() ?? null;
 }
 
-function recordSummary(r: RecordRow & { moduleName?: string | null }, latestSyncId: number | null) {
+function recordSummary(r: RecordRow & { moduleName?: string | null }, latestSyncId: number | null): PatternRecordSummary {
   const changes = computePatternChanges({ ...r, inLatestReport: latestSyncId !== null && r.lastSyncId === latestSyncId });
   return {
     id: r.id,
@@ -91,8 +99,6 @@ function recordSummary(r: RecordRow & { moduleName?: string | null }, latestSync
     version: r.version,
   };
 }
-/** A pattern record as lists show it. */
-export type PatternRecordSummary = ReturnType<typeof recordSummary>;
 
 function selectRecords(where: SQL | undefined) {
   return getDb()
@@ -107,16 +113,8 @@ function selectRecords(where: SQL | undefined) {
 // ---------------------------------------------------------------------------------------------------------------
 // Sync
 
-/** Result of a sync. */
-export type PatternSyncResult = {
-  syncId: number;
-  asOf: string;
-  /** True when the latest sync already covered this day and data (nothing recomputed or written). */
-  upToDate: boolean;
-  created: number;
-  updated: number;
-  at: string;
-};
+/** Result of a sync (`upToDate`: the latest sync already covered this day and data; nothing recomputed). */
+export type PatternSyncResult = PatternSyncResponse;
 
 function snapshotOf(report: PatternsReport, cohort: PatternCohort): PatternSnapshot {
   return {
@@ -237,7 +235,7 @@ export function recordMatcher(user: SessionUser) {
   const rows = selectRecords(visibleCondition(user));
   const latest = latestSync()?.id ?? null;
   const records = rows.map(({ r }) => r);
-  return (c: { key: string; buildFrom: string; buildTo: string }) => {
+  return (c: { key: string; buildFrom: string; buildTo: string }): CohortRecordRef => {
     const r = matchPatternRecord(c, records);
     if (!r) return null;
     const s = recordSummary(r, latest);
@@ -246,7 +244,7 @@ export function recordMatcher(user: SessionUser) {
 }
 
 /** Pattern records the caller may see, filtered; strongest evidence first. */
-export function listPatternRecords(user: SessionUser, q: PatternRecordsQuery) {
+export function listPatternRecords(user: SessionUser, q: PatternRecordsQuery): PatternRecordsResponse {
   const conds: (SQL | undefined)[] = [visibleCondition(user)];
   if (q.status?.length) conds.push(inArray(patternRecords.status, q.status as PatternStatus[]));
   if (q.module) conds.push(eq(patternRecords.moduleCode, q.module.toUpperCase()));
@@ -273,6 +271,11 @@ function loadVisibleRecord(user: SessionUser, id: number): RecordRow & { moduleN
     .get();
   if (!row) throw notFound('Pattern');
   return { ...row.r, moduleName: row.moduleName };
+}
+
+/** True when the record exists and the caller may see it (pages answer 404 otherwise). */
+export function patternRecordVisible(user: SessionUser, id: number): boolean {
+  return !!getDb().select({ id: patternRecords.id }).from(patternRecords).where(and(eq(patternRecords.id, id), visibleCondition(user))).get();
 }
 
 function depotFilter(user: SessionUser, column: SQL | typeof vehicles.depotId): SQL | undefined {
@@ -419,7 +422,7 @@ function statusPerson(id: number | null): { id: number; name: string } | null {
 }
 
 /** One pattern record with its latest cohort, the vehicles and defects behind it (caller's depots), and its history. */
-export function getPatternRecord(user: SessionUser, id: number) {
+export function getPatternRecord(user: SessionUser, id: number): PatternRecordDetail {
   const r = loadVisibleRecord(user, id);
   const latest = latestSync();
   const snap = JSON.parse(r.snapshot) as PatternSnapshot;
@@ -447,8 +450,6 @@ export function getPatternRecord(user: SessionUser, id: number) {
     lastSync: latest ? { id: latest.id, at: new Date(latest.at).toISOString(), asOf: latest.asOf } : null,
   };
 }
-/** The pattern page's data. */
-export type PatternRecordDetail = ReturnType<typeof getPatternRecord>;
 
 // ---------------------------------------------------------------------------------------------------------------
 // Acting

@@ -2,7 +2,7 @@
  * Patterns: loads the fleet the caller may see into the recurrence engine's plain input, runs the report or
  * the mean cumulative function, and caches results until the underlying data changes.
  */
-import { and, eq, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
 import { computePatternsReport } from '@/lib/patterns/report';
@@ -13,6 +13,7 @@ import type { SessionUser } from './auth';
 import { depotScope } from './list-helpers';
 import { invalid, notFound } from './http';
 import { recordMatcher } from './patterns-records';
+import type { PatternsReportResponse } from '@/lib/contracts/patterns';
 
 /** Replicates and seed of the report's Monte Carlo (fixed so that a report is reproducible). */
 export const REPORT_REPLICATES = 999;
@@ -109,13 +110,19 @@ export const FLEET_WIDE: SessionUser = { id: 0, email: 'system', name: 'Seepline
  * The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras), with the
  * pattern record each cohort belongs to (`record`, null when none) among the records the caller may see.
  */
-export function patternsResponse(report: PatternsReport, user: SessionUser = FLEET_WIDE) {
+export function patternsResponse(report: PatternsReport, user: SessionUser = FLEET_WIDE): PatternsReportResponse {
   const recordOf = recordMatcher(user);
   return {
     ...report,
     asOf: report.asOf,
     cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => ({ ...c, record: recordOf(c) })),
   };
+}
+
+/** Codes of the given depots, sorted (for saying whose figures a depot-scoped page shows). */
+export function listDepotCodes(depotIds: number[]): string[] {
+  if (depotIds.length === 0) return [];
+  return getDb().select({ code: depots.code }).from(depots).where(inArray(depots.id, depotIds)).all().map((d) => d.code).sort();
 }
 
 /** Mean cumulative function series for a module type. */

@@ -101,7 +101,10 @@ describe('explainTrend', () => {
     expect(explainTrend(base, 'in this cohort')).toBe(
       'Yes: failures in this cohort come faster as the vehicles age — both tests reject a steady rate (Laplace U = 2.50, p = 0.012; MIL-HDBK-189 χ² = 55.2 on 80 degrees of freedom, p = 0.03; power-law shape β = 1.45).',
     );
-    expect(explainTrend({ ...base, direction: 'none', accelerating: false }, 'of WLR-2')).toMatch(/^No clear sign: failures of WLR-2 come at a steady rate/);
+    expect(explainTrend({ ...base, direction: 'none', accelerating: false, laplacePTwoSided: 0.3, milHdbkPTwoSided: 0.4 }, 'of WLR-2')).toMatch(/^No clear sign: failures of WLR-2 come at a steady rate/);
+    expect(explainTrend({ ...base, direction: 'none', accelerating: false, laplacePTwoSided: 0.14 }, 'here')).toMatch(
+      /^Not clear: the MIL-HDBK-189 test points to failures here coming faster with age but the Laplace test does not/,
+    );
     expect(explainTrend({ ...base, direction: 'decreasing', accelerating: false }, 'here')).toMatch(/^No, the opposite/);
     expect(explainTrend({ ...base, laplaceU: null, events: 1 }, 'here')).toBe('Too few failures here to test whether they come faster with age.');
   });

@@ -4,7 +4,7 @@
  * evidence points to water and why, and whether failures come faster with age. Numbers stay exact one click
  * deeper; here they are rounded for reading. Edit with docs/patterns-method.md when a rule changes.
  */
-import { FDR_LEVEL, WATER_SHARE_ALPHA, WATER_SHARE_MIN } from './rules';
+import { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN } from './rules';
 import type { ModuleTrend, PatternCohort } from './types';
 
 const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
@@ -132,5 +132,13 @@ export function explainTrend(t: ModuleTrend, subject: string): string {
   const figures = `Laplace U = ${t.laplaceU.toFixed(2)}, ${formatStat('p', t.laplacePTwoSided ?? 1)}; MIL-HDBK-189 χ² = ${(t.milHdbkChiSquare ?? 0).toFixed(1)} on ${t.milHdbkDf} degrees of freedom, ${formatStat('p', t.milHdbkPTwoSided ?? 1)}; power-law shape β = ${t.beta === null ? '–' : t.beta.toFixed(2)}`;
   if (t.direction === 'increasing') return `Yes: failures ${subject} come faster as the vehicles age — both tests reject a steady rate (${figures}).`;
   if (t.direction === 'decreasing') return `No, the opposite: failures ${subject} come more slowly as the vehicles age — both tests reject a steady rate (${figures}).`;
+  const laplaceSays = (t.laplacePTwoSided ?? 1) < TREND_ALPHA;
+  const milSays = (t.milHdbkPTwoSided ?? 1) < TREND_ALPHA;
+  if (laplaceSays !== milSays) {
+    // MIL-HDBK-189 points to faster failures when β > 1 (χ² below its 2N degrees of freedom).
+    const faster = laplaceSays ? t.laplaceU > 0 : (t.beta ?? 1) > 1;
+    const [one, other] = laplaceSays ? ['Laplace', 'MIL-HDBK-189'] : ['MIL-HDBK-189', 'Laplace'];
+    return `Not clear: the ${one} test points to failures ${subject} coming ${faster ? 'faster' : 'more slowly'} with age but the ${other} test does not, and both must agree before a trend is called (${figures}).`;
+  }
   return `No clear sign: failures ${subject} come at a steady rate as far as the tests can tell (${figures}).`;
 }
