@@ -57,6 +57,30 @@ export function parseAsOfParam(v: string | null | undefined): string {
   return d;
 }
 
+const dayFormats = new Map<string, Intl.DateTimeFormat>();
+
+/**
+ * The calendar day of a failure, `YYYY-MM-DD`: the day as written when the report came with its own text (an
+ * import or a form: `2023-07-20` or `2023-07-20T23:30+01:00` is the 20th, whatever the zone), else the instant's
+ * day at the depot (its time zone; UTC when it has none). NOTE: the instant alone is not enough — a date-only
+ * report in British summer time is stored as 23:00 UTC on the day before, and the engine counts ages in days.
+ */
+export function failureDay(reportedAtMs: number, reportedAtText: string | null, timezone: string | null): string {
+  const written = reportedAtText?.trim().slice(0, 10);
+  if (written && parseIsoDate(written)) return written;
+  const tz = timezone || 'UTC';
+  let f = dayFormats.get(tz);
+  if (!f) {
+    try {
+      f = new Intl.DateTimeFormat('en-CA', { timeZone: tz, year: 'numeric', month: '2-digit', day: '2-digit' });
+    } catch {
+      f = new Intl.DateTimeFormat('en-CA', { timeZone: 'UTC', year: 'numeric', month: '2-digit', day: '2-digit' });
+    }
+    dayFormats.set(tz, f);
+  }
+  return f.format(new Date(reportedAtMs));
+}
+
 /** The engine's input for the caller's depots (cancelled defects left out). */
 export function loadPatternsInput(user: SessionUser): PatternsInput {
   const db = getDb();
@@ -83,12 +107,26 @@ export function loadPatternsInput(user: SessionUser): PatternsInput {
     .all();
   const ms = db.select({ id: modules.id, code: modules.code, function: modules.function }).from(modules).all();
   const fs = db
-    .select({ id: defects.id, vehicleId: defects.vehicleId, moduleId: defects.moduleId, reportedAt: defects.reportedAt, moisture: defects.moisture, rootCause: defects.rootCause })
+    .select({
+      id: defects.id,
+      vehicleId: defects.vehicleId,
+      moduleId: defects.moduleId,
+      reportedAt: defects.reportedAt,
+      reportedAtText: defects.reportedAtText,
+      timezone: depots.timezone,
+      moisture: defects.moisture,
+      rootCause: defects.rootCause,
+    })
     .from(defects)
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
+    .innerJoin(depots, eq(depots.id, defects.depotId))
     .where(and(vScope, ne(defects.status, 'cancelled')))
     .all()
-    .map((f) => ({ ...f, reportedAt: new Date(f.reportedAt).toISOString(), diagnosed: f.moisture !== null || f.rootCause !== null }));
+    .map(({ reportedAtText, timezone, ...f }) => ({
+      ...f,
+      reportedAt: failureDay(f.reportedAt, reportedAtText, timezone),
+      diagnosed: f.moisture !== null || f.rootCause !== null,
+    }));
   return { vehicles: vs, depots: ds, modules: ms, failures: fs };
 }
 
