@@ -7,6 +7,7 @@ import { body, call } from '../setup/call';
 import { importCsv, personWithToken } from '../factories/fleet';
 import { loadGeneratedFleet, type LoadedFleet } from '../factories/patterns-fleet';
 import { getDb } from '../../src/db/client';
+import { getPatternsAttention } from '../../src/server/patterns-records';
 import { toMonthIndex } from '../../src/lib/patterns/calendar';
 import { EVIDENCE_CSV_COLUMNS } from '../../src/lib/patterns/evidence-csv';
 import type { PatternsReportCohort, PatternRecordDetail, PatternRecordsResponse } from '../../src/lib/contracts/patterns';
@@ -241,6 +242,13 @@ describe('a cohort whose build range widens keeps its record', () => {
     expect(auditRows(wet.id).filter((r) => r.field === 'buildRange').at(-1)).toMatchObject({ actor: 'system', oldValue: `${wet.buildFrom}..${wet.buildTo}`, newValue: `${after.buildFrom}..${after.buildTo}` });
     const count = await body<PatternRecordsResponse>(await call(records, 'GET', '/api/patterns/records', { token: manager.token }));
     expect(count.total).toBe(2);
+  });
+
+  it('the Overview figure counts it as needing attention (changed since the last action)', () => {
+    const me = { id: manager.id, email: 'm', name: 'M', role: 'manager' as const, depotIds: null, via: 'token' as const };
+    // WLR-2 (acknowledged, range widened since) needs attention; DLA-1 (acknowledged, unchanged) does not.
+    expect(getPatternsAttention(me)).toEqual({ needsAttention: 1, new: 0, changed: 1, open: 2, waterIngressOpen: 1, href: '/patterns' });
+    expect(getPatternsAttention({ ...me, role: 'technician', depotIds: [] })).toBeNull();
   });
 });
 

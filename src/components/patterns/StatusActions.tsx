@@ -39,7 +39,12 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
     if (isCampaign) {
       const r = CampaignSchema.safeParse({ kind: v.kind, note: v.campaignNote, targetDate: v.targetDate });
       if (!r.success) {
-        for (const i of r.error.issues) ctx.addIssue({ code: 'custom', path: [i.path[0] === 'note' ? 'campaignNote' : String(i.path[0])], message: i.message });
+        for (const i of r.error.issues) {
+          const field = i.path[0] === 'note' ? 'campaignNote' : String(i.path[0]);
+          // The schema's messages name API values; the form speaks to people.
+          const message = field === 'kind' ? 'Choose what the campaign is' : field === 'targetDate' && !v.targetDate ? 'Choose a target date' : i.message;
+          ctx.addIssue({ code: 'custom', path: [field], message });
+        }
       }
     }
     if (move === 'dismissed' && v.text.trim().length < 3) ctx.addIssue({ code: 'custom', path: ['text'], message: 'Give the reason for dismissing (at least 3 characters)' });
@@ -77,7 +82,7 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
       open
       onClose={onClose}
       title={title}
-      description={`Now ${PATTERN_STATUS_LABELS[record.status].toLowerCase()}; this will be ${PATTERN_STATUS_LABELS[move].toLowerCase()}, recorded with your name and the time.`}
+      description={`${PATTERN_STATUS_LABELS[record.status]} → ${PATTERN_STATUS_LABELS[move]}, recorded with your name and the time.`}
       footer={
         <>
           <button type="button" className="btn-secondary" onClick={onClose}>
