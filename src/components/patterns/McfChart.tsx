@@ -56,7 +56,7 @@ export function McfChart({ series, highlight, width, height = 300, static: isSta
   const drawn = series.filter((s) => s.points.length > 0);
   const summary = drawn.map((s) => `${label(s.key)}: ${(s.points[s.points.length - 1]?.mcf ?? 0).toFixed(2)} failures per vehicle by ${((s.points[s.points.length - 1]?.ageDays ?? 0) / 365.25).toFixed(1)} years`).join('; ');
   const chart = (
-    <LineChart margin={{ top: 8, right: 12, bottom: 14, left: 0 }} width={width} height={width ? height : undefined}>
+    <LineChart margin={{ top: 16, right: 12, bottom: 14, left: 0 }} width={width} height={width ? height : undefined}>
       <CartesianGrid stroke="#eceef1" />
       <XAxis
         dataKey="ageYears"
@@ -69,7 +69,7 @@ export function McfChart({ series, highlight, width, height = 300, static: isSta
       />
       <YAxis tick={{ fontSize: 11, fill: '#4d5665' }} width={40} tickFormatter={(v: number) => v.toFixed(2)} />
       {!isStatic && <Tooltip content={<TooltipBody />} />}
-      <Legend verticalAlign="top" height={26} iconSize={10} wrapperStyle={{ fontSize: 12 }} itemSorter={null} />
+      <Legend position="top" height={26} iconSize={10} wrapperStyle={{ fontSize: 12 }} itemSorter={null} />
       {drawn.flatMap((s) => {
         const data = mcfPoints(s);
         const colour = BAND_COLOURS[s.key];

@@ -50,13 +50,13 @@ export function RateChart({ months, buildFrom, buildTo, width, height = 280, sta
   // Two stacked series (one of them 0 in each month) colour the cohort's months and give the legend both meanings.
   const data: Point[] = months.map((m) => ({ ...m, cohortFailures: m.inCohort ? m.failures : 0, otherFailures: m.inCohort ? 0 : m.failures }));
   const chart = (
-    <ComposedChart data={data} margin={{ top: 8, right: 12, bottom: 4, left: 0 }} width={width} height={width ? height : undefined}>
+    <ComposedChart data={data} margin={{ top: 16, right: 12, bottom: 4, left: 0 }} width={width} height={width ? height : undefined}>
       <CartesianGrid stroke="#eceef1" vertical={false} />
       <XAxis dataKey="month" tickFormatter={tick} tick={{ fontSize: 11, fill: '#4d5665' }} interval="preserveStartEnd" minTickGap={14} />
       <YAxis allowDecimals={false} tick={{ fontSize: 11, fill: '#4d5665' }} width={32} />
       <ReferenceArea x1={buildFrom} x2={buildTo} fill="#f7dcd7" fillOpacity={0.6} ifOverflow="extendDomain" />
       {!isStatic && <Tooltip content={<TooltipBody />} cursor={{ fill: '#d5ecec', fillOpacity: 0.4 }} />}
-      <Legend verticalAlign="top" height={26} iconSize={10} wrapperStyle={{ fontSize: 12 }} itemSorter={null} />
+      <Legend position="top" height={26} iconSize={10} wrapperStyle={{ fontSize: 12 }} itemSorter={null} />
       <Bar dataKey="cohortFailures" stackId="f" name="Failures, cohort months" fill="#b23a2b" isAnimationActive={false} maxBarSize={18} />
       <Bar dataKey="otherFailures" stackId="f" name="Failures, other months" fill="#8c95a3" isAnimationActive={false} maxBarSize={18} />
       <Line dataKey="expected" name="Expected at the fleet rate" type="stepAfter" stroke="#1a5559" strokeWidth={2} dot={false} isAnimationActive={false} />
