@@ -18,6 +18,8 @@ import * as sync from '../../src/pages/api/patterns/sync';
 import * as record from '../../src/pages/api/patterns/[id]';
 import * as status from '../../src/pages/api/patterns/[id]/status';
 import * as evidence from '../../src/pages/api/patterns/[id]/evidence.csv';
+import * as traces from '../../src/pages/api/traces/index';
+import { captureToCsv, generateCapture } from '../../src/lib/traces/generate';
 
 const WET: PlantedCohort = { label: 'wet', moduleCode: 'WLR-2', buildFrom: '2021-03', buildTo: '2021-09', band: 'high', rateMultiplier: 3, moistureShare: 0.9 };
 const DRY: PlantedCohort = { label: 'dry', moduleCode: 'DLA-1', buildFrom: '2022-05', buildTo: '2022-12', band: 'low', rateMultiplier: 3, moistureShare: 0.05 };
@@ -304,5 +306,28 @@ describe('warranty evidence CSV', () => {
     const refs = lines.slice(1).map((l) => l.split(',')[refIndex]).filter(Boolean).sort();
     expect(refs).toEqual(full.defectList.map((d) => d.ref).sort());
     for (const l of lines.slice(1)) expect(l.startsWith(`${wet.id},WLR-2,high,${wet.buildFrom},${wet.buildTo},`)).toBe(true);
+  });
+
+  it('carries the verdicts of the hall-sensor traces stored with a cohort defect', async () => {
+    const list = await body<PatternRecordsResponse>(await call(records, 'GET', '/api/patterns/records', { token: manager.token }));
+    const wet = list.items.find((i) => i.key === 'WLR-2:high')!;
+    const target = (await getRecord(manager.token, wet.id)).json.defectList[0]!;
+    const store = async (cap: ReturnType<typeof generateCapture>) => {
+      const f = new FormData();
+      f.set('file', new Blob([captureToCsv(cap)], { type: 'text/csv' }), 'door.csv');
+      f.set('defectId', String(target.id));
+      const r = await call(traces, 'POST', '/api/traces', { token: manager.token, body: f });
+      expect(r.status).toBe(201);
+      return (await body(r)).verdict as string;
+    };
+    // Captures generated from known parameters (as in tests/api/traces.test.ts): healthy quadrature, then two channels bridged.
+    const v1 = await store(generateCapture({ freqHz: 200, dutyPct: 50, phaseDeg: 90, highV: 5, lowV: 0, sampleRateHz: 50_000, samples: 5000, noiseV: 0.02, seed: 3 }));
+    const v2 = await store(generateCapture({ freqHz: 150, dutyPct: 50, phaseDeg: 90, highV: 5, lowV: 0, sampleRateHz: 40_000, samples: 4000, bridged: 'wired-and', spikeV: 1, seed: 4 }));
+    expect([v1, v2]).toEqual(['healthy', 'channels_shorted']);
+    const d = (await getRecord(manager.token, wet.id)).json.defectList.find((x) => x.id === target.id)!;
+    expect(d.traces.map((t) => t.verdict)).toEqual(['healthy', 'channels_shorted']);
+    const text = await (await call(evidence, 'GET', `/api/patterns/${wet.id}/evidence.csv`, { token: manager.token, params: { id: String(wet.id) } })).text();
+    const row = text.split('\r\n').find((l) => l.includes(`,${target.ref},`))!;
+    expect(row.endsWith(',healthy; channels_shorted')).toBe(true);
   });
 });
