@@ -295,36 +295,82 @@ export const settings = sqliteTable('settings', {
 });
 
 export const PATTERN_STATUSES = ['new', 'acknowledged', 'campaign_planned', 'resolved', 'dismissed'] as const;
+/** What a fleet manager decides for a cohort (the "campaign planned" status carries one). */
+export const CAMPAIGN_KINDS = ['inspect_cohort', 'washing_practice', 'new_membranes', 'reseal_connectors', 'replace_module', 'other'] as const;
 
 /**
- * A pattern the recurrence engine found, kept with a stable identity (module type + exposure band) across
- * re-runs so that people can act on it; the latest figures are stored as a JSON snapshot.
+ * One synchronisation of the pattern records from the fleet-wide report (as of a day, on a data version).
+ * A record whose `last_sync_id` is not the latest sync was not found in the latest report.
+ */
+export const patternSyncs = sqliteTable('pattern_syncs', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  at: integer('at').notNull(),
+  asOf: text('as_of').notNull(),
+  /** Fingerprint of the fleet data the report was computed on (see src/server/patterns.ts). */
+  dataVersion: text('data_version').notNull(),
+  byUserId: integer('by_user_id').references(() => users.id, { onDelete: 'set null' }),
+  cohortsTested: integer('cohorts_tested').notNull(),
+  cohortsSignificant: integer('cohorts_significant').notNull(),
+  recordsCreated: integer('records_created').notNull(),
+  recordsUpdated: integer('records_updated').notNull(),
+});
+
+/**
+ * A pattern the recurrence engine found fleet-wide, kept so that people can act on it (docs/decisions/011).
+ * Identity: module type + exposure band (`key`) and a build range that overlaps the engine's latest window for
+ * that key; a window that no longer overlaps starts a new record. The latest figures are columns (for lists and
+ * filters) and a JSON snapshot (the cohort with its months, vehicles and failures, for the pattern page); the
+ * `acted_*` columns hold the figures when a person last changed the status, so that a changed cohort shows.
  */
 export const patternRecords = sqliteTable(
   'pattern_records',
   {
     id: integer('id').primaryKey({ autoIncrement: true }),
-    /** Stable identity: `${moduleCode}:${band}`. */
-    key: text('key').notNull().unique(),
+    /** `${moduleCode}:${band}`; several records may share it over time (different, non-overlapping ranges). */
+    key: text('key').notNull(),
     moduleCode: text('module_code').notNull(),
     exposureBand: text('exposure_band').notNull(),
-    /** Engine cohort id of the latest run (includes the build range). */
+    /** Engine cohort id of the latest report that matched (includes the build range). */
     cohortId: text('cohort_id').notNull(),
     buildFrom: text('build_from').notNull(),
     buildTo: text('build_to').notNull(),
+    /** Range when the record was created. */
+    firstBuildFrom: text('first_build_from').notNull(),
+    firstBuildTo: text('first_build_to').notNull(),
+    vehicles: integer('vehicles').notNull(),
     failures: integer('failures').notNull(),
+    expected: real('expected').notNull(),
     rateRatio: real('rate_ratio'),
-    qValue: real('q_value'),
+    ciLow: real('ci_low'),
+    ciHigh: real('ci_high'),
+    qValue: real('q_value').notNull(),
+    moistureShare: real('moisture_share').notNull(),
+    repeatVehicles: integer('repeat_vehicles').notNull(),
+    significant: integer('significant', { mode: 'boolean' }).notNull(),
     waterIngress: integer('water_ingress', { mode: 'boolean' }).notNull().default(false),
     status: text('status', { enum: PATTERN_STATUSES }).notNull().default('new'),
+    /** The note or reason given with the latest status change (required for dismissed). */
     statusReason: text('status_reason'),
     statusById: integer('status_by_id').references(() => users.id, { onDelete: 'set null' }),
     statusAt: integer('status_at'),
-    /** What changed since a person last acted on it (range widened, new failures), or null. */
-    changeNote: text('change_note'),
-    snapshot: text('snapshot'),
+    campaignKind: text('campaign_kind', { enum: CAMPAIGN_KINDS }),
+    campaignNote: text('campaign_note'),
+    /** `YYYY-MM-DD`. */
+    campaignTargetDate: text('campaign_target_date'),
+    /** Figures when a person last acted (or when first recorded): the baseline of "changed since". */
+    actedAt: integer('acted_at').notNull(),
+    actedFailures: integer('acted_failures').notNull(),
+    actedBuildFrom: text('acted_build_from').notNull(),
+    actedBuildTo: text('acted_build_to').notNull(),
+    /** JSON: the engine cohort, its module baseline and the report's method, as of `snapshot_as_of`. */
+    snapshot: text('snapshot').notNull(),
+    snapshotAsOf: text('snapshot_as_of').notNull(),
+    lastSyncId: integer('last_sync_id').references(() => patternSyncs.id),
     firstSeenAt: integer('first_seen_at').notNull(),
     lastSeenAt: integer('last_seen_at').notNull(),
+    version: integer('version').notNull().default(1),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
   },
-  (t) => [index('pattern_records_status_idx').on(t.status)],
+  (t) => [index('pattern_records_key_idx').on(t.key), index('pattern_records_status_idx').on(t.status)],
 );

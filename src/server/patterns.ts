@@ -2,7 +2,7 @@
  * Patterns: loads the fleet the caller may see into the recurrence engine's plain input, runs the report or
  * the mean cumulative function, and caches results until the underlying data changes.
  */
-import { and, eq, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
 import { computePatternsReport } from '@/lib/patterns/report';
@@ -12,6 +12,8 @@ import { parseIsoDate } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { depotScope } from './list-helpers';
 import { invalid, notFound } from './http';
+import { recordMatcher } from './patterns-records';
+import type { PatternsReportResponse } from '@/lib/contracts/patterns';
 
 /** Replicates and seed of the report's Monte Carlo (fixed so that a report is reproducible). */
 export const REPORT_REPLICATES = 999;
@@ -22,7 +24,7 @@ const cache = new Map<string, Cached>();
 const CACHE_MAX = 32;
 
 /** A fingerprint of the data the engine reads; changes whenever a vehicle, defect, depot or module changes. */
-function dataVersion(): string {
+export function dataVersion(): string {
   const db = getDb();
   const row = db.get<{ v: string }>(sql`select
     (select count(*) || ':' || coalesce(max(updated_at), 0) from defects) || '|' ||
@@ -55,6 +57,30 @@ export function parseAsOfParam(v: string | null | undefined): string {
   return d;
 }
 
+const dayFormats = new Map<string, Intl.DateTimeFormat>();
+
+/**
+ * The calendar day of a failure, `YYYY-MM-DD`: the day as written when the report came with its own text (an
+ * import or a form: `2023-07-20` or `2023-07-20T23:30+01:00` is the 20th, whatever the zone), else the instant's
+ * day at the depot (its time zone; UTC when it has none). NOTE: the instant alone is not enough — a date-only
+ * report in British summer time is stored as 23:00 UTC on the day before, and the engine counts ages in days.
+ */
+export function failureDay(reportedAtMs: number, reportedAtText: string | null, timezone: string | null): string {
+  const written = reportedAtText?.trim().slice(0, 10);
+  if (written && parseIsoDate(written)) return written;
+  const tz = timezone || 'UTC';
+  let f = dayFormats.get(tz);
+  if (!f) {
+    try {
+      f = new Intl.DateTimeFormat('en-CA', { timeZone: tz, year: 'numeric', month: '2-digit', day: '2-digit' });
+    } catch {
+      f = new Intl.DateTimeFormat('en-CA', { timeZone: 'UTC', year: 'numeric', month: '2-digit', day: '2-digit' });
+    }
+    dayFormats.set(tz, f);
+  }
+  return f.format(new Date(reportedAtMs));
+}
+
 /** The engine's input for the caller's depots (cancelled defects left out). */
 export function loadPatternsInput(user: SessionUser): PatternsInput {
   const db = getDb();
@@ -81,12 +107,26 @@ export function loadPatternsInput(user: SessionUser): PatternsInput {
     .all();
   const ms = db.select({ id: modules.id, code: modules.code, function: modules.function }).from(modules).all();
   const fs = db
-    .select({ id: defects.id, vehicleId: defects.vehicleId, moduleId: defects.moduleId, reportedAt: defects.reportedAt, moisture: defects.moisture, rootCause: defects.rootCause })
+    .select({
+      id: defects.id,
+      vehicleId: defects.vehicleId,
+      moduleId: defects.moduleId,
+      reportedAt: defects.reportedAt,
+      reportedAtText: defects.reportedAtText,
+      timezone: depots.timezone,
+      moisture: defects.moisture,
+      rootCause: defects.rootCause,
+    })
     .from(defects)
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
+    .innerJoin(depots, eq(depots.id, defects.depotId))
     .where(and(vScope, ne(defects.status, 'cancelled')))
     .all()
-    .map((f) => ({ ...f, reportedAt: new Date(f.reportedAt).toISOString(), diagnosed: f.moisture !== null || f.rootCause !== null }));
+    .map(({ reportedAtText, timezone, ...f }) => ({
+      ...f,
+      reportedAt: failureDay(f.reportedAt, reportedAtText, timezone),
+      diagnosed: f.moisture !== null || f.rootCause !== null,
+    }));
   return { vehicles: vs, depots: ds, modules: ms, failures: fs };
 }
 
@@ -101,13 +141,26 @@ export function getPatternsReport(user: SessionUser, asOf: string): PatternsRepo
   );
 }
 
-/** The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras). */
-export function patternsResponse(report: PatternsReport) {
+/** Everyone's scope: the fleet-wide report that pattern records are kept from (and the CLI's view). */
+export const FLEET_WIDE: SessionUser = { id: 0, email: 'system', name: 'Seepline', role: 'admin', depotIds: null, via: 'token' };
+
+/**
+ * The CONTRACT.md shape of `GET /api/patterns` (cohort fields of the contract plus the engine's extras), with the
+ * pattern record each cohort belongs to (`record`, null when none) among the records the caller may see.
+ */
+export function patternsResponse(report: PatternsReport, user: SessionUser = FLEET_WIDE): PatternsReportResponse {
+  const recordOf = recordMatcher(user);
   return {
     ...report,
     asOf: report.asOf,
-    cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => c),
+    cohorts: report.cohorts.map(({ vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, byMonth: _m, ...c }) => ({ ...c, record: recordOf(c) })),
   };
+}
+
+/** Codes of the given depots, sorted (for saying whose figures a depot-scoped page shows). */
+export function listDepotCodes(depotIds: number[]): string[] {
+  if (depotIds.length === 0) return [];
+  return getDb().select({ code: depots.code }).from(depots).where(inArray(depots.id, depotIds)).all().map((d) => d.code).sort();
 }
 
 /** Mean cumulative function series for a module type. */

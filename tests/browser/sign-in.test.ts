@@ -5,12 +5,14 @@ import { baseUrl, demoUser, open, pathOf, signIn, useBrowser, type Role } from '
 const h = useBrowser();
 
 // What each role sees in the side navigation and under its name (CONTRACT.md "Who may do what":
-// Import for admins and fleet managers, People and Settings for admins only).
+// Patterns for admins, fleet managers and supervisors, Import for admins and fleet managers, People and Settings
+// for admins only).
 const BASE_NAV = ['Overview', 'Defects', 'Vehicles', 'Traces', 'Depots', 'Modules'];
+const WITH_PATTERNS = ['Overview', 'Defects', 'Vehicles', 'Patterns', 'Traces', 'Depots', 'Modules'];
 const EXPECTED: Record<Role, { label: string; nav: string[] }> = {
-  admin: { label: 'Admin', nav: [...BASE_NAV, 'Import', 'People', 'Settings'] },
-  manager: { label: 'Fleet manager', nav: [...BASE_NAV, 'Import'] },
-  supervisor: { label: 'Depot supervisor', nav: BASE_NAV },
+  admin: { label: 'Admin', nav: [...WITH_PATTERNS, 'Import', 'People', 'Settings'] },
+  manager: { label: 'Fleet manager', nav: [...WITH_PATTERNS, 'Import'] },
+  supervisor: { label: 'Depot supervisor', nav: WITH_PATTERNS },
   technician: { label: 'Technician', nav: BASE_NAV },
   viewer: { label: 'Viewer', nav: BASE_NAV },
 };

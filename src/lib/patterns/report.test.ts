@@ -125,6 +125,20 @@ describe('computePatternsReport on a hand-built fleet', () => {
     expect(cohort?.moistureP).toBeCloseTo(10 / 286, 12);
   });
 
+  it('cohort trend: Laplace and MIL-HDBK-189 over the 8 cohort vehicles (REFERENCES §2 formulas, computed by hand)', () => {
+    // Every cohort vehicle is observed for T = 1461 days (2020-01-01..2024-01-01). The 12 failure ages (days from
+    // 2020-01-01) are 425, 790, 456, 821, 486, 851, 517, 882, 547, 578, 609, 639, each placed at age + 0.5:
+    // Σt = 7601 + 6 = 7607; U = (7607 − 12·1461/2) / √(12·1461²/12) = −1159/1461 = −0.793292266;
+    // χ² = 2 Σ ln(1461/t) = 20.753468810 (df 24, python math.log); β̂ = 12 / (χ²/2) = 1.156433183.
+    expect(cohort?.trend.systems).toBe(8);
+    expect(cohort?.trend.events).toBe(12);
+    expect(cohort?.trend.laplaceU).toBeCloseTo(-1159 / 1461, 12);
+    expect(cohort?.trend.milHdbkChiSquare).toBeCloseTo(20.753468810, 8);
+    expect(cohort?.trend.milHdbkDf).toBe(24);
+    expect(cohort?.trend.beta).toBeCloseTo(1.156433183, 8);
+    expect(cohort?.trend.direction).toBe('none');
+  });
+
   it('by-month chart rows cover every build month of the band', () => {
     expect(cohort?.byMonth.map((m) => [m.month, m.vehicles, m.failures, m.inCohort])).toEqual([
       ['2019-01', 2, 1, false], ['2019-02', 2, 1, false], ['2019-03', 2, 0, false], ['2019-04', 2, 0, false],

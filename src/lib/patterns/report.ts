@@ -7,6 +7,7 @@
 import { formatMonthIndex } from './calendar';
 import { bandName, indexFleet, parseAsOf, type FleetIndex, type ModuleFailures } from './fleet-index';
 import { deriveSeed } from './rng';
+import { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN } from './rules';
 import { createScanLayout, runPoissonScan, type ScanLayout } from './scan';
 import { adjustBenjaminiHochberg, compareRatesExact, computeGarwoodInterval, fisherExactGreater } from './stats';
 import { computeLaplaceTrend, computeMilHdbkTrend, fitPowerLawNhpp, type TrendSystem } from './trend';
@@ -28,14 +29,7 @@ import {
 export const DEFAULT_REPLICATES = 999;
 /** Default seed. */
 export const DEFAULT_SEED = 1;
-/** Cohorts with q below this are significant (Benjamini–Hochberg false-discovery level). */
-export const FDR_LEVEL = 0.05;
-/** Water ingress needs at least this share of the cohort's diagnosed failures to show water... */
-export const WATER_SHARE_MIN = 0.5;
-/** ...and that share to exceed the rest of the module's by a one-sided Fisher exact test below this p. */
-export const WATER_SHARE_ALPHA = 0.05;
-/** Level of the trend tests (two-sided). */
-export const TREND_ALPHA = 0.05;
+export { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN };
 /** Default smallest band scanned, in vehicles. */
 export const DEFAULT_MIN_BAND_VEHICLES = 20;
 /** Default largest window, as a share of the band's vehicles. */
@@ -226,6 +220,7 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
       }
       const failureIds: number[] = [];
       const perVehicle = new Map<number, number>();
+      const cohortFailureList: ModuleFailures = { failureIds: [], vehicleIndex: [], ageDays: [], diagnosed: [], moisture: [] };
       let diagnosed = 0;
       let wet = 0;
       for (let k = 0; k < moduleFailureCount; k++) {
@@ -233,6 +228,9 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
         const b = bins.binOfVehicle[vi] as number;
         if (b < best.start || b > best.end) continue;
         failureIds.push(failures.failureIds[k] as number);
+        cohortFailureList.failureIds.push(failures.failureIds[k] as number);
+        cohortFailureList.vehicleIndex.push(vi);
+        cohortFailureList.ageDays.push(failures.ageDays[k] as number);
         perVehicle.set(vi, (perVehicle.get(vi) ?? 0) + 1);
         if (failures.diagnosed[k]) diagnosed++;
         if (failures.moisture[k]) wet++;
@@ -312,6 +310,7 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
         failureIds,
         repeatVehicleIds,
         byMonth,
+        trend: moduleTrend(fleet, cohortFailureList, vehicleIds.length),
       });
     }
   });

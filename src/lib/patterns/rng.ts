@@ -15,7 +15,7 @@ export interface Random {
 }
 
 const TWO_POW_32 = 4294967296;
-const TWO_POW_53 = 9007199254740992;
+const TWO_POW_53 = 2 ** 53;
 
 /**
  * Seeded stream: pure-rand's xoroshiro128+ expands the seed into the state of a xoshiro128** generator, whose

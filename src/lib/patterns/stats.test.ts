@@ -156,6 +156,13 @@ describe('adjustBenjaminiHochberg', () => {
     q.forEach((value, i) => expect(value).toBeCloseTo(expected[i] as number, 9));
   });
 
+  it('the largest p is its own q exactly, never a rounding below it (q_(m) = p_(m)·m/m, by definition)', () => {
+    const p = [...Array.from({ length: 20 }, (_, i) => 0.3 + i * 0.01), 0.975];
+    const q = adjustBenjaminiHochberg(p);
+    expect(q[20]).toBe(0.975);
+    q.forEach((value, i) => expect(value).toBeGreaterThanOrEqual(p[i] as number));
+  });
+
   it('empty and single inputs; rejects values outside [0, 1]', () => {
     expect(adjustBenjaminiHochberg([])).toEqual([]);
     expect(adjustBenjaminiHochberg([0.3])).toEqual([0.3]);

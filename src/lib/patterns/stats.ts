@@ -157,7 +157,8 @@ export function adjustBenjaminiHochberg(pValues: readonly number[]): number[] {
   let running = 1;
   for (let rank = m; rank >= 1; rank--) {
     const index = order[rank - 1] as number;
-    running = Math.min(running, (m * (pValues[index] as number)) / rank);
+    // p·(m/rank) rather than m·p/rank: at rank m the factor is exactly 1, so q is never below p by rounding.
+    running = Math.min(running, (pValues[index] as number) * (m / rank));
     adjusted[index] = Math.min(1, running);
   }
   return adjusted;

@@ -168,6 +168,8 @@ export interface PatternCohort {
   repeatVehicleIds: number[];
   /** Every build month of the band (cohort months flagged). */
   byMonth: CohortMonth[];
+  /** Trend tests over the cohort's own vehicles and failures (same method as the module's trend). */
+  trend: ModuleTrend;
 }
 
 /** Trend tests of one module type's failures over each vehicle's days in service. */

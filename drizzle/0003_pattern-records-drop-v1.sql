@@ -1,0 +1,1 @@
+DROP TABLE `pattern_records`;
