@@ -167,6 +167,9 @@ export function applyTransition(tx: Tx, user: SessionUser, id: number, req: Tran
   const { row, moduleFunction, timezone } = loadForWrite(tx, user, id);
   if (req.version !== row.version) throw new StaleVersionError();
   const from = row.status;
+  // First whether the step exists and is the caller's to take; then what it needs.
+  const pre = checkTransition(from, req.to, { role: user.role, moduleFunction: 'other', hasAction: true, hasRootCause: true, verification: null, reason: 'given' });
+  if (!pre.ok) throw refusal(pre);
   if (req.verification && req.to !== 'verified' && req.to !== 'closed') {
     throw new HttpError(422, 'INVALID_INPUT', 'A verification is recorded with the step to verified or closed.', [{ path: 'verification', message: 'Not with this step' }]);
   }
