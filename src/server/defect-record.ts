@@ -58,6 +58,11 @@ function loadRecordRow(id: number) {
     .get();
 }
 
+/** The repeat window in days (setting `repeat_window_days`), for the report form's hint. */
+export function currentRepeatWindowDays(): number {
+  return repeatWindowDays(getDb());
+}
+
 /** The hourly labour rate for costs (setting `labour_rate_minor_per_hour`), or null when none is set. */
 export function labourRateMinorPerHour(tx: Pick<Tx, 'select'> = getDb()): number | null {
   const v = Number(tx.select().from(settings).where(eq(settings.key, 'labour_rate_minor_per_hour')).get()?.value);

@@ -179,4 +179,4 @@ export function listDefects(user: SessionUser, q: DefectListQuery): ListResponse
 }
 
 // One record, reporting, changing, lifecycle steps and deleting live in defect-record.ts.
-export { createDefect, deleteDefect, getDefect, listTransitions, transitionDefect, updateDefect } from './defect-record';
+export { createDefect, currentRepeatWindowDays, deleteDefect, getDefect, listTransitions, transitionDefect, updateDefect } from './defect-record';

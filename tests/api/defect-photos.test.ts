@@ -35,7 +35,7 @@ function photoRows(): number {
 }
 function form(bytes: Uint8Array, name: string, type: string, caption?: string) {
   const f = new FormData();
-  f.set('file', new Blob([bytes], { type }), name);
+  f.set('file', new Blob([bytes as Uint8Array<ArrayBuffer>], { type }), name);
   if (caption !== undefined) f.set('caption', caption);
   return f;
 }

@@ -62,7 +62,7 @@ describe('reporting a defect', () => {
   ])('refuses %s and writes nothing', async (_name, over, status, path) => {
     const before = sql<{ n: number }>('select count(*) n from defects')[0]!.n;
     const json = { vin, position: 'FL', moduleCode: 'WLR-2', ...over };
-    const res = over.vin === null ? await create({ ...json, vin }, techSth.token) : await create(json);
+    const res = (over as { vin?: null }).vin === null ? await create({ ...json, vin }, techSth.token) : await create(json);
     expect(res.status).toBe(status);
     const b = await body(res);
     expect(b.error.issues.map((i: { path: string }) => i.path)).toContain(path);

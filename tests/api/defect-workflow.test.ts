@@ -10,7 +10,6 @@ import * as transitionsRoute from '../../src/pages/api/defects/[id]/transitions'
 
 type Person = { token: string; id: number };
 let tech: Person, tech2: Person, sup: Person, manager: Person, admin: Person, viewer: Person, techSth: Person, supSth: Person;
-let vinNth: string, vinSth: string;
 
 const db = () => new Database(process.env.DATABASE_URL!, { readonly: true });
 function count(sql: string, ...args: unknown[]): number {
@@ -25,8 +24,6 @@ function count(sql: string, ...args: unknown[]): number {
 beforeAll(async () => {
   baseFleet();
   importCsv('modules', 'code,name,function\nDCM-1,Door control module,door_control\nHRN-1,Front door harness,harness\nMRM-1,Mirror motor,mirror\n');
-  vinNth = addVehicle('NTH');
-  vinSth = addVehicle('STH');
   tech = await personWithToken('technician', ['NTH']);
   tech2 = await personWithToken('technician', ['NTH']);
   sup = await personWithToken('supervisor', ['NTH']);

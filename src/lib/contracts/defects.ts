@@ -126,7 +126,12 @@ export type DefectCreate = z.output<typeof DefectCreateSchema>;
 /** The report form: the same fields, with a symptom required (a person reporting always says what is wrong). */
 export const DefectReportFormSchema = DefectCreateSchema.pick({ vin: true, position: true, moduleCode: true, dtcs: true, odometerKm: true, reporterName: true }).extend({
   symptom: z.string().trim().min(3, 'Say what is wrong (at least a few words)').max(TEXT_LIMITS.symptom, `At most ${TEXT_LIMITS.symptom} characters`),
-  reportedAt: instantText('Reported at').refine((s) => (parseInstant(s) ?? 0) <= Date.now() + 5 * 60_000, 'Reported at cannot be in the future'),
+  // The form's date-time is the browser's local time (<input type="datetime-local">); sent as an ISO instant.
+  reportedAt: z
+    .string()
+    .refine((s) => !Number.isNaN(new Date(s).getTime()), 'Give the date and time it was reported')
+    .refine((s) => new Date(s).getTime() <= Date.now() + 5 * 60_000, 'Reported at cannot be in the future')
+    .transform((s) => new Date(s).toISOString()),
 });
 export type DefectReportFormInput = z.input<typeof DefectReportFormSchema>;
 export type DefectReportForm = z.output<typeof DefectReportFormSchema>;
@@ -139,6 +144,35 @@ export const PartSchema = z.object({
   unitCostMinor: optionalInt('Unit cost', 0, 100_000_000).transform((v) => v ?? null),
 });
 export type Part = z.output<typeof PartSchema>;
+
+/** Money typed by a person ("24.50", "24,5", "1200") as minor units; null when empty, undefined when not money. */
+export function parseMoneyText(text: string): number | null | undefined {
+  const t = text.trim().replace(/\s/g, '');
+  if (t === '') return null;
+  const m = /^(\d{1,9})(?:[.,](\d{1,2}))?$/.exec(t);
+  if (!m) return undefined;
+  return Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0'));
+}
+
+/** Minor units as the text a person edits ("24.50"); empty for none. */
+export function moneyText(minor: number | null): string {
+  return minor === null ? '' : (minor / 100).toFixed(2);
+}
+
+/** A part line as the form holds it (texts), turned into a Part. */
+export const PartFormSchema = z
+  .object({
+    partNumber: PartSchema.shape.partNumber,
+    description: z.string().max(200, 'Description is at most 200 characters'),
+    quantity: z.string().trim().regex(/^\d{1,3}$/, 'Quantity must be a whole number').refine((q) => Number(q) >= 1, 'Quantity is at least 1'),
+    unitCost: z.string().refine((c) => parseMoneyText(c) !== undefined, 'Unit cost must be an amount such as 24.50'),
+  })
+  .transform((p): Part => ({
+    partNumber: p.partNumber,
+    description: p.description.trim() || null,
+    quantity: Number(p.quantity),
+    unitCostMinor: parseMoneyText(p.unitCost) ?? null,
+  }));
 
 /** Fields of the diagnosis and repair record. */
 export const DiagnosisFields = {
@@ -153,6 +187,14 @@ export const DiagnosisFields = {
   labourMinutes: optionalInt('Labour minutes', 0, 10_000),
   parts: z.array(PartSchema, 'Parts must be a list').max(MAX_PARTS, `At most ${MAX_PARTS} part lines`).optional(),
 };
+
+/** The diagnosis and repair form: the same fields, with part lines typed as text (amounts in currency units). */
+export const DiagnosisFormSchema = z.object({
+  ...DiagnosisFields,
+  parts: z.array(PartFormSchema).max(MAX_PARTS, `At most ${MAX_PARTS} part lines`),
+});
+export type DiagnosisFormInput = z.input<typeof DiagnosisFormSchema>;
+export type DiagnosisFormOutput = z.output<typeof DiagnosisFormSchema>;
 
 /**
  * Change a defect (PATCH /api/defects/{id}): only the fields given change (null clears). `version` makes the
