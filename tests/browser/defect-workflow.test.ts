@@ -169,6 +169,50 @@ describe('a technician works a window-lifter defect to a verified close', () => 
   });
 });
 
+describe('two people change the same defect', () => {
+  beforeAll(async () => loginAs(h.context, 'technician'));
+
+  it('shows theirs against yours field by field instead of overwriting, and re-applies the chosen values', async () => {
+    const target = db
+      .prepare("select x.id from defects x join depots d on d.id = x.depot_id where d.code = 'GHQ' and x.status in ('diagnosing', 'awaiting_parts') order by x.id limit 1")
+      .get() as { id: number };
+    const page = h.page;
+    await open(page, `/defects/${target.id}`);
+    const mine = page.getByRole('form', { name: 'Diagnosis and repair record' });
+    await mine.getByRole('radio', { name: 'Corrosion' }).check();
+    await mine.getByLabel('Labour, minutes').fill('120');
+
+    // Someone else (here: a second tab) saves moisture and notes first.
+    const other = await h.context.newPage();
+    await open(other, `/defects/${target.id}`);
+    const theirs = other.getByRole('form', { name: 'Diagnosis and repair record' });
+    await theirs.getByRole('radio', { name: 'Traces' }).check();
+    await theirs.getByLabel('Notes').fill('Driver reports the window also squeaks');
+    await theirs.getByRole('button', { name: 'Save diagnosis and repair' }).click();
+    await theirs.getByRole('status').getByText(/^Saved at/).waitFor();
+    await other.close();
+
+    h.guard.expectFailure(/\/api\/defects\/\d+$/, 409);
+    await mine.getByRole('button', { name: 'Save diagnosis and repair' }).click();
+    const panel = page.getByRole('alert').filter({ hasText: 'Not saved: this defect was changed while you were editing' });
+    await panel.waitFor();
+    const rows = panel.getByRole('table', { name: 'Changes: saved now against yours' }).locator('tbody tr');
+    expect(await rows.evaluateAll((trs) => trs.map((tr) => [...tr.children].slice(0, 3).map((c) => (c as HTMLElement).innerText.trim().replace(/\s+/g, ' '))))).toEqual([
+      ['Moisture found both changed', 'Traces', 'Corrosion'],
+      ['Notes', 'Driver reports the window also squeaks', expect.any(String)],
+      ['Labour', '–', '2 h 0 min'],
+    ]);
+    // Nothing of mine was written yet.
+    expect(db.prepare('select moisture, labour_minutes l, notes from defects where id = ?').get(target.id)).toEqual({ moisture: 'traces', l: null, notes: 'Driver reports the window also squeaks' });
+    // Keep their moisture, my labour, their notes.
+    await panel.locator('tr[data-field="moisture"]').getByRole('radio', { name: 'Theirs' }).check();
+    await panel.getByRole('button', { name: 'Re-apply my choices' }).click();
+    await mine.getByRole('status').getByText(/^Saved at/).waitFor();
+    expect(db.prepare('select moisture, labour_minutes l, notes from defects where id = ?').get(target.id)).toEqual({ moisture: 'traces', l: 120, notes: 'Driver reports the window also squeaks' });
+    expect(await mine.getByRole('radio', { name: 'Traces' }).isChecked()).toBe(true);
+  });
+});
+
 describe('the GHQ supervisor finds the defect', () => {
   beforeAll(async () => loginAs(h.context, 'supervisor'));
 

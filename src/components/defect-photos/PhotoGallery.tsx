@@ -13,6 +13,7 @@ import { canEditRecord, SUPERVISOR_ROLES, type WorkflowRole } from '@/lib/defect
 import { formatInstant } from '@/components/defects/format';
 import { Dialog } from '@/components/ui/Dialog';
 import { useDefect, useDeletePhoto, useUploadPhoto } from '@/components/defect-workflow/queries';
+import { useHydrated } from '@/components/defect-fields/use-hydrated';
 
 type Props = { initial: DefectRecord; role: WorkflowRole; userId: number; timeZone: string | null };
 type Outcome = { name: string; ok: boolean; message: string };
@@ -31,6 +32,7 @@ function Gallery({ initial, role, userId, timeZone }: Props) {
   const [dragging, setDragging] = useState(false);
   const [confirmRemove, setConfirmRemove] = useState(false);
   const editable = canEditRecord(r.status, role);
+  const hydrated = useHydrated();
   const photos = r.photos;
   const mayRemove = (p: DefectPhoto) => (p.byId === userId && editable) || SUPERVISOR_ROLES.includes(role);
 
@@ -86,18 +88,18 @@ function Gallery({ initial, role, userId, timeZone }: Props) {
                 <label htmlFor={`${uid}-caption`} className="field-label">
                   Caption <span className="font-normal text-ink-500">(optional, for the next photo)</span>
                 </label>
-                <input id={`${uid}-caption`} className="input" maxLength={200} placeholder="e.g. corroded encoder board, membrane torn at the lower edge" value={caption} onChange={(e) => setCaption(e.target.value)} />
+                <input id={`${uid}-caption`} disabled={!hydrated} className="input" maxLength={200} placeholder="e.g. corroded encoder board, membrane torn at the lower edge" value={caption} onChange={(e) => setCaption(e.target.value)} />
               </div>
               <div className="flex flex-wrap gap-2">
                 <label className="btn-primary cursor-pointer focus-within:ring-2 focus-within:ring-estuary-300">
                   <Camera size={18} aria-hidden="true" />
                   Take a photo
-                  <input type="file" accept="image/*" capture="environment" className="sr-only" disabled={upload.isPending} onChange={(e) => { onFiles(e.target.files); e.target.value = ''; }} />
+                  <input type="file" accept="image/*" capture="environment" className="sr-only" disabled={!hydrated || upload.isPending} onChange={(e) => { onFiles(e.target.files); e.target.value = ''; }} />
                 </label>
                 <label className="btn-secondary cursor-pointer focus-within:ring-2 focus-within:ring-estuary-300">
                   <ImagePlus size={18} aria-hidden="true" />
                   Choose files
-                  <input type="file" accept="image/jpeg,image/png,image/webp" multiple className="sr-only" disabled={upload.isPending} onChange={(e) => { onFiles(e.target.files); e.target.value = ''; }} />
+                  <input type="file" accept="image/jpeg,image/png,image/webp" multiple className="sr-only" disabled={!hydrated || upload.isPending} onChange={(e) => { onFiles(e.target.files); e.target.value = ''; }} />
                 </label>
               </div>
             </div>

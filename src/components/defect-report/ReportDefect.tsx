@@ -17,6 +17,7 @@ import { DoorPicker } from '@/components/defect-fields/DoorPicker';
 import { DtcDecoded } from '@/components/defect-fields/DtcField';
 import { useReportDefect, useVehicleDefects, type EarlierDefect, type VehicleOption } from './queries';
 import { VehiclePicker } from './VehiclePicker';
+import { useHydrated } from '@/components/defect-fields/use-hydrated';
 
 export type ModuleOption = { code: string; name: string; function: string };
 type Props = {
@@ -57,6 +58,7 @@ function Report({ modules, reporterName, initialVehicle, repeatWindowDays }: Pro
     defaultValues: { vin: initialVehicle?.vin ?? '', position: '', moduleCode: '', symptom: '', dtcs: '', odometerKm: '', reporterName, reportedAt: '' },
   });
   const e = formState.errors;
+  const hydrated = useHydrated();
   // The clock is read in the browser only (the server's would differ, and so would the rendered form).
   const [latest, setLatest] = useState<string | undefined>(undefined);
   useEffect(() => {
@@ -107,7 +109,7 @@ function Report({ modules, reporterName, initialVehicle, repeatWindowDays }: Pro
 
   return (
     <form onSubmit={onSubmit} noValidate className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_22rem]" aria-label="Report a defect">
-      <div className="min-w-0 space-y-4">
+      <fieldset disabled={!hydrated} className="m-0 min-w-0 space-y-4 border-0 p-0">
         <FormError message={formError} />
         <section className="card card-pad space-y-3" aria-labelledby={id('h-vehicle')}>
           <h2 id={id('h-vehicle')}>1. Vehicle</h2>
@@ -200,7 +202,7 @@ function Report({ modules, reporterName, initialVehicle, repeatWindowDays }: Pro
               <input className="input tabular-nums" inputMode="numeric" {...fieldAria(id('odometerKm'), e.odometerKm?.message)} {...register('odometerKm')} />
             </FormField>
             <FormField id={id('reporterName')} label="Reported by" error={e.reporterName?.message} hint="You, or the driver who noticed it.">
-              <input className="input" {...fieldAria(id('reporterName'), e.reporterName?.message, true)} {...register('reporterName')} />
+              <input className="input" defaultValue={reporterName} {...fieldAria(id('reporterName'), e.reporterName?.message, true)} {...register('reporterName')} />
             </FormField>
             <FormField id={id('reportedAt')} label="Reported at" required error={e.reportedAt?.message}>
               <input type="datetime-local" className="input" max={latest} {...fieldAria(id('reportedAt'), e.reportedAt?.message)} {...register('reportedAt')} />
@@ -216,7 +218,7 @@ function Report({ modules, reporterName, initialVehicle, repeatWindowDays }: Pro
             Cancel
           </a>
         </div>
-      </div>
+      </fieldset>
 
       <aside className="space-y-4" aria-label="This door's history">
         <DoorHistory vehicle={vehicle} position={position} door={door} loading={earlier.isLoading} openSame={openSame} repeatOf={repeatOf} repeatWindowDays={repeatWindowDays} fn={fn} />

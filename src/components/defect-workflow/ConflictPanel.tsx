@@ -56,7 +56,7 @@ export function ConflictPanel<K extends string>({ conflict, display, onApply, on
                 <tr key={d.field} data-field={d.field}>
                   <th scope="row" className="!static !border-ink-100 !bg-white !text-sm !font-semibold !normal-case !tracking-normal text-ink-800">
                     {name(d.field)}
-                    {d.conflict && <span className="badge-amber ml-1">both changed</span>}
+                    {d.conflict && <> <span className="badge-amber ml-1">both changed</span></>}
                   </th>
                   <td className={d.changedByThem ? 'font-semibold' : 'text-ink-500'}>{display(d.field, d.theirs)}</td>
                   <td className={d.changedByMe ? 'font-semibold' : 'text-ink-500'}>{display(d.field, d.mine)}</td>

@@ -29,6 +29,7 @@ import { SafetyCautions } from '@/components/defect-fields/SafetyCautions';
 import { CONDITION_FIELD_LABELS, CONDITION_LABELS } from '@/components/defect-fields/labels';
 import { defectKey, staleRecord, useDefect, useSaveDefect } from './queries';
 import { useVersionedForm } from './use-versioned-form';
+import { useHydrated } from '@/components/defect-fields/use-hydrated';
 import { ConflictPanel } from './ConflictPanel';
 
 type PartRow = { partNumber: string; description: string; quantity: string; unitCost: string };
@@ -88,6 +89,11 @@ function Diagnosis({ initial, role, timeZone }: Props) {
         Diagnosis and repair
       </h2>
       <SafetyCautions step="diagnosis" />
+      {editable && !record.open && (
+        <p className="mt-3 rounded-md bg-ink-100 px-3 py-2 text-sm text-ink-700">
+          This defect is {record.status}. You may still correct its record; every change is kept in the audit trail.
+        </p>
+      )}
       {editable ? <DiagnosisForm record={record} timeZone={timeZone} /> : <DiagnosisView record={record} />}
     </section>
   );
@@ -176,6 +182,11 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
   const watched = useWatch({ control }) as Values;
   const dirty = vf.changed(watched as unknown as Record<Field, unknown>).length > 0;
   const e = formState.errors;
+  const hydrated = useHydrated();
+  // Rendered on the server too: uncontrolled fields carry their saved values in the HTML (react-hook-form only
+  // sets them once it runs). Frozen at the first render: later values are react-hook-form's to set, and a changing
+  // defaultChecked/defaultValue would fight it.
+  const [d] = useState(() => fromRecord(record));
 
   const submit = useCallback(
     async (out: DiagnosisFormOutput) => {
@@ -230,7 +241,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
         />
       )}
       <FormError message={formError} />
-
+      <fieldset disabled={!hydrated} className="m-0 min-w-0 space-y-5 border-0 p-0">
       <fieldset>
         <legend className="field-label">Moisture found in the door</legend>
         <div className="flex flex-wrap gap-2">
@@ -239,12 +250,12 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
               key={m}
               className="flex min-h-10 cursor-pointer items-center gap-2 rounded-md border border-ink-300 bg-white px-3 py-2 text-[15px] has-checked:border-estuary-700 has-checked:bg-estuary-50 has-checked:font-semibold"
             >
-              <input type="radio" value={m} className="h-4 w-4 accent-estuary-700" {...register('moisture')} />
+              <input type="radio" value={m} className="h-4 w-4 accent-estuary-700" defaultChecked={d.moisture === m} {...register('moisture')} />
               {MOISTURE_LABELS[m]}
             </label>
           ))}
           <label className="flex min-h-10 cursor-pointer items-center gap-2 rounded-md border border-dashed border-ink-300 px-3 py-2 text-[15px] text-ink-600 has-checked:border-ink-500">
-            <input type="radio" value="" className="h-4 w-4 accent-estuary-700" {...register('moisture')} />
+            <input type="radio" value="" className="h-4 w-4 accent-estuary-700" defaultChecked={d.moisture === ''} {...register('moisture')} />
             Not checked yet
           </label>
         </div>
@@ -253,7 +264,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
       <div className="grid gap-4 sm:grid-cols-2">
         {CONDITION_FIELDS.map((f) => (
           <FormField key={f} id={id(f)} label={CONDITION_FIELD_LABELS[f]} error={e[f]?.message}>
-            <select className="input" {...fieldAria(id(f), e[f]?.message)} {...register(f)}>
+            <select className="input" defaultValue={d[f]} {...fieldAria(id(f), e[f]?.message)} {...register(f)}>
               <option value="">Not checked</option>
               {CONDITION_VALUES[f].map((v) => (
                 <option key={v} value={v}>
@@ -266,7 +277,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
       </div>
 
       <FormField id={id('rootCause')} label="Root cause" error={e.rootCause?.message} hint="Needed to close the defect.">
-        <select className="input sm:max-w-xs" {...fieldAria(id('rootCause'), e.rootCause?.message, true)} {...register('rootCause')}>
+        <select className="input sm:max-w-xs" defaultValue={d.rootCause} {...fieldAria(id('rootCause'), e.rootCause?.message, true)} {...register('rootCause')}>
           <option value="">Not found yet</option>
           {Object.entries(ROOT_CAUSE_LABELS).map(([v, l]) => (
             <option key={v} value={v}>
@@ -276,10 +287,10 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
         </select>
       </FormField>
       <FormField id={id('action')} label="Action (what was done)" error={e.action?.message} hint="Needed to mark the defect repaired.">
-        <textarea rows={2} className="input" {...fieldAria(id('action'), e.action?.message, true)} {...register('action')} />
+        <textarea rows={2} className="input" defaultValue={d.action} {...fieldAria(id('action'), e.action?.message, true)} {...register('action')} />
       </FormField>
       <FormField id={id('notes')} label="Notes" error={e.notes?.message}>
-        <textarea rows={3} className="input" {...fieldAria(id('notes'), e.notes?.message)} {...register('notes')} />
+        <textarea rows={3} className="input" defaultValue={d.notes} {...fieldAria(id('notes'), e.notes?.message)} {...register('notes')} />
       </FormField>
 
       <fieldset className="rounded-md border border-ink-200 px-3 pt-2 pb-3 sm:px-4">
@@ -290,16 +301,16 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
             return (
               <div key={field.id} className="grid grid-cols-[1fr_4.5rem] gap-2 border-b border-ink-100 pb-3 sm:grid-cols-[9rem_1fr_4.5rem_6.5rem_auto] sm:items-start" data-testid="part-line">
                 <FormField id={id(`p${i}-pn`)} label="Part number" error={pe?.partNumber?.message} className="col-span-2 sm:col-span-1">
-                  <input className="input mono" autoComplete="off" {...fieldAria(id(`p${i}-pn`), pe?.partNumber?.message)} {...register(`parts.${i}.partNumber`)} />
+                  <input className="input mono" autoComplete="off" defaultValue={field.partNumber} {...fieldAria(id(`p${i}-pn`), pe?.partNumber?.message)} {...register(`parts.${i}.partNumber`)} />
                 </FormField>
                 <FormField id={id(`p${i}-d`)} label="Description" error={pe?.description?.message} className="col-span-2 sm:col-span-1">
-                  <input className="input" {...fieldAria(id(`p${i}-d`), pe?.description?.message)} {...register(`parts.${i}.description`)} />
+                  <input className="input" defaultValue={field.description} {...fieldAria(id(`p${i}-d`), pe?.description?.message)} {...register(`parts.${i}.description`)} />
                 </FormField>
                 <FormField id={id(`p${i}-q`)} label="Qty" error={pe?.quantity?.message}>
-                  <input className="input tabular-nums" inputMode="numeric" {...fieldAria(id(`p${i}-q`), pe?.quantity?.message)} {...register(`parts.${i}.quantity`)} />
+                  <input className="input tabular-nums" inputMode="numeric" defaultValue={field.quantity} {...fieldAria(id(`p${i}-q`), pe?.quantity?.message)} {...register(`parts.${i}.quantity`)} />
                 </FormField>
                 <FormField id={id(`p${i}-c`)} label="Unit cost" error={pe?.unitCost?.message}>
-                  <input className="input tabular-nums" inputMode="decimal" placeholder="0.00" {...fieldAria(id(`p${i}-c`), pe?.unitCost?.message)} {...register(`parts.${i}.unitCost`)} />
+                  <input className="input tabular-nums" inputMode="decimal" placeholder="0.00" defaultValue={field.unitCost} {...fieldAria(id(`p${i}-c`), pe?.unitCost?.message)} {...register(`parts.${i}.unitCost`)} />
                 </FormField>
                 <button type="button" className="btn-ghost self-end text-brick-700" aria-label={`Remove part line ${i + 1}`} onClick={() => parts.remove(i)}>
                   <Trash2 size={18} aria-hidden="true" />
@@ -313,7 +324,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
           </button>
           <div className="grid gap-4 sm:grid-cols-[10rem_1fr] sm:items-end">
             <FormField id={id('labourMinutes')} label="Labour, minutes" error={e.labourMinutes?.message}>
-              <input className="input tabular-nums" inputMode="numeric" {...fieldAria(id('labourMinutes'), e.labourMinutes?.message)} {...register('labourMinutes')} />
+              <input className="input tabular-nums" inputMode="numeric" defaultValue={d.labourMinutes} {...fieldAria(id('labourMinutes'), e.labourMinutes?.message)} {...register('labourMinutes')} />
             </FormField>
             <p className="text-sm text-ink-600" aria-live="polite">
               Parts <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal)}</span>
@@ -330,8 +341,9 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
         </div>
       </fieldset>
 
+      </fieldset>
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="btn-primary" disabled={save.isPending || !!vf.conflict}>
+        <button type="submit" className="btn-primary" disabled={!hydrated || save.isPending || !!vf.conflict}>
           {save.isPending ? 'Saving…' : 'Save diagnosis and repair'}
         </button>
         {dirty && !vf.conflict && (

@@ -20,6 +20,7 @@ import { DtcDecoded } from '@/components/defect-fields/DtcField';
 import { defectKey, staleRecord, useDefect, useSaveDefect } from './queries';
 import { useVersionedForm } from './use-versioned-form';
 import { ConflictPanel } from './ConflictPanel';
+import { useHydrated } from '@/components/defect-fields/use-hydrated';
 
 type Values = { symptom: string; dtcs: string; odometerKm: string; reporterName: string; position: string; moduleCode: string };
 const FIELDS = ['symptom', 'dtcs', 'odometerKm', 'reporterName', 'position', 'moduleCode'] as const;
@@ -55,12 +56,13 @@ function Report({ initial, role, timeZone, modules }: Props) {
   const { data: r } = useDefect(initial);
   const [editing, setEditing] = useState(false);
   const editable = canEditRecord(r.status, role);
+  const hydrated = useHydrated();
   return (
     <section className="card" aria-labelledby="h-report">
       <div className="flex items-center justify-between gap-2 border-b border-ink-200 px-4 py-3 sm:px-5">
         <h2 id="h-report">Report</h2>
         {editable && !editing && (
-          <button type="button" className="btn-ghost" onClick={() => setEditing(true)}>
+          <button type="button" className="btn-ghost" disabled={!hydrated} onClick={() => setEditing(true)}>
             <Pencil size={16} aria-hidden="true" /> Edit report
           </button>
         )}

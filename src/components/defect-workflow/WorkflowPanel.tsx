@@ -16,6 +16,7 @@ import { formatInstant, formatInstantDate } from '@/components/defects/format';
 import { Dialog } from '@/components/ui/Dialog';
 import { SafetyCautions } from '@/components/defect-fields/SafetyCautions';
 import { staleRecord, useDefect, useStep, type StepInput } from './queries';
+import { useHydrated } from '@/components/defect-fields/use-hydrated';
 
 type Props = { initial: DefectRecord; role: WorkflowRole; timeZone: string | null };
 
@@ -50,6 +51,7 @@ function Panel({ initial, role, timeZone }: Props) {
   const [alert, setAlert] = useState<string | null>(null);
   const [dialog, setDialog] = useState<NextStep | null>(null);
   const canWork = role !== 'viewer';
+  const hydrated = useHydrated();
   const steps = useMemo(
     () =>
       nextSteps(r.status, {
@@ -127,13 +129,13 @@ function Panel({ initial, role, timeZone }: Props) {
             {r.timeline.at(-1)?.reason ? `: ${r.timeline.at(-1)!.reason}` : '.'}
           </p>
         ) : (
-          <ol className="grid gap-2 sm:flex sm:flex-wrap sm:gap-0" aria-label="Steps">
+          <ol className="grid gap-2 sm:auto-cols-fr sm:grid-flow-col sm:gap-0" aria-label="Steps">
             {shown.map((s, i) => {
               const done = i < currentIndex;
               const current = i === currentIndex;
               const when = done || current ? lastAt(s) : null;
               return (
-                <li key={s} className="flex items-start gap-2 sm:min-w-[8.5rem] sm:flex-1 sm:flex-col sm:gap-1 sm:border-t-4 sm:pt-2 sm:pr-2" style={{ borderColor: done || current ? 'var(--color-estuary-600)' : 'var(--color-ink-200)' }} aria-current={current ? 'step' : undefined}>
+                <li key={s} className="flex items-start gap-2 sm:flex-col sm:gap-1 sm:border-t-4 sm:pt-2 sm:pr-2" style={{ borderColor: done || current ? 'var(--color-estuary-600)' : 'var(--color-ink-200)' }} aria-current={current ? 'step' : undefined}>
                   <span className={`flex items-center gap-1.5 text-sm font-semibold ${current ? 'text-estuary-800' : done ? 'text-ink-800' : 'text-ink-400'}`}>
                     {done ? <Check size={16} aria-hidden="true" /> : current ? <CircleDot size={16} aria-hidden="true" /> : <span className="inline-block h-4 w-4 rounded-full border-2 border-ink-300" aria-hidden="true" />}
                     {STATUS_LABELS[s]}
@@ -158,7 +160,7 @@ function Panel({ initial, role, timeZone }: Props) {
         {steps.length > 0 && (
           <div className="mt-3 flex flex-wrap gap-2" role="group" aria-label="Next steps">
             {steps.map((s) => (
-              <StepButton key={`${s.rule.key}-${s.rule.to}`} s={s} primary={s === primary} busy={step.isPending} onClick={() => void onStep(s)} />
+              <StepButton key={`${s.rule.key}-${s.rule.to}`} s={s} primary={s === primary} busy={step.isPending || !hydrated} onClick={() => void onStep(s)} />
             ))}
           </div>
         )}
@@ -189,7 +191,18 @@ function Panel({ initial, role, timeZone }: Props) {
         )}
       </div>
 
-      {dialog && <StepDialog r={r} s={dialog} timeZone={timeZone} onClose={() => setDialog(null)} take={take} busy={step.isPending} />}
+      {dialog && (
+        <StepDialog
+          key={`${dialog.rule.key}-${dialog.rule.to}`}
+          r={r}
+          s={dialog}
+          timeZone={timeZone}
+          onClose={() => setDialog(null)}
+          take={take}
+          busy={step.isPending}
+          onVerifyFirst={steps.find((x) => x.rule.key === 'verify') ? () => setDialog(steps.find((x) => x.rule.key === 'verify')!) : undefined}
+        />
+      )}
     </section>
   );
 }
@@ -304,6 +317,8 @@ type DialogProps = {
   onClose: () => void;
   take: (input: Omit<StepInput, 'version'>) => Promise<string | null>;
   busy: boolean;
+  /** Switch to recording the verification (offered when closing is refused for the lack of it). */
+  onVerifyFirst?: () => void;
 };
 
 /** A local date-time for <input type="datetime-local"> (the browser's clock and zone). */
@@ -313,7 +328,7 @@ function localNow(): string {
   return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
 }
 
-function StepDialog({ r, s, timeZone, onClose, take, busy }: DialogProps) {
+function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: DialogProps) {
   const uid = useId();
   const [error, setError] = useState<string | null>(null);
   const [reason, setReason] = useState('');
@@ -422,9 +437,14 @@ function StepDialog({ r, s, timeZone, onClose, take, busy }: DialogProps) {
     >
       {body}
       {error && (
-        <p role="alert" className="mt-3 rounded-md border border-brick-100 bg-brick-50 px-3 py-2 text-sm text-brick-700" data-testid="dialog-refusal">
-          {error}
-        </p>
+        <div role="alert" className="mt-3 rounded-md border border-brick-100 bg-brick-50 px-3 py-2 text-sm text-brick-700" data-testid="dialog-refusal">
+          <p>{error}</p>
+          {key === 'close' && onVerifyFirst && /release verification/.test(error) && (
+            <button type="button" className="btn-secondary mt-2" onClick={onVerifyFirst}>
+              Record the verification now
+            </button>
+          )}
+        </div>
       )}
     </Dialog>
   );
