@@ -353,6 +353,8 @@ export function updateDefect(user: SessionUser, id: number, patch: DefectPatch, 
         if (patch.parts!.length) tx.insert(defectParts).values(patch.parts!.map((p) => ({ defectId: row.id, ...p }))).run();
         writeAudit(tx, actor, { entity: 'defect', entityId: String(row.id), action: 'update', field: 'parts', oldValue: partsText(currentParts), newValue: partsText(patch.parts!) }, now);
       }
+      // Photos and traces follow the defect into its new vehicle's depot (their scope is checked against it).
+      if (merged.depotId !== undefined && merged.depotId !== row.depotId) tx.update(attachments).set({ depotId: merged.depotId }).where(eq(attachments.defectId, row.id)).run();
       if (codes?.ok && str(merged.dtcs) !== str(row.dtcs)) writeDefectCodes(tx, row.id, codes.codes.map((c) => ({ code: c.code, failureType: c.failureType, display: c.display })));
       if (affectsRepeats(row, merged)) refreshRepeats(tx, [...vehicleIds]);
     });

@@ -13,6 +13,7 @@ import * as defectsRoute from '../../src/pages/api/defects/index';
 import * as photosRoute from '../../src/pages/api/defects/[id]/photos';
 import * as photoRoute from '../../src/pages/api/photos/[id]';
 import * as transitionsRoute from '../../src/pages/api/defects/[id]/transitions';
+import * as defectRoute from '../../src/pages/api/defects/[id]';
 import { MAX_PHOTO_BYTES } from '../../src/lib/photos/checks';
 
 type Person = { token: string; id: number };
@@ -219,6 +220,18 @@ describe('access to photos', () => {
     expect((await fetchPhoto(p.id, tech)).status).toBe(404);
     const q = await body(await upload(form(small, 'again.jpg', 'image/jpeg')));
     expect((await call(photoRoute, 'DELETE', '/x', { token: sup.token, params: { id: String(q.id) } })).status).toBe(204);
+  });
+  it('photos follow a defect moved to a vehicle of another depot', async () => {
+    const manager = await personWithToken('manager');
+    const vin = addVehicle('NTH');
+    const d = await body(await call(defectsRoute, 'POST', '/api/defects', { token: tech.token, json: { vin, position: 'FL', moduleCode: 'LCK-1' } }));
+    const small = await sharp({ create: { width: 24, height: 24, channels: 3, background: '#305070' } }).png().toBuffer();
+    const p = await body(await upload(form(small, 'moved.png', 'image/png'), tech, d.id));
+    const sthVin = addVehicle('STH');
+    const moved = await call(defectRoute, 'PATCH', '/x', { token: manager.token, params: { id: String(d.id) }, json: { vin: sthVin } });
+    expect(moved.status).toBe(200);
+    expect((await fetchPhoto(p.id, techSth)).status).toBe(200);
+    expect((await fetchPhoto(p.id, tech)).status).toBe(404);
   });
   it('a closed defect takes photos from supervisors only', async () => {
     const vin = addVehicle('NTH');
