@@ -11,6 +11,7 @@ import { parseInstant } from '../dates/dates';
 import { DEFECT_STATUS_VALUES } from '../defects/transitions';
 import { MOISTURE_VALUES, POSITION_VALUES, ROOT_CAUSE_VALUES } from '../imports/rows';
 
+/** The enumerations the schemas use, re-exported for the forms. */
 export { DEFECT_STATUS_VALUES, MOISTURE_VALUES, POSITION_VALUES, ROOT_CAUSE_VALUES };
 
 /** What the technician found on each part of the door, worst last. */
@@ -22,6 +23,7 @@ export const CONDITION_VALUES = {
 } as const;
 /** The four condition fields. */
 export type ConditionField = keyof typeof CONDITION_VALUES;
+/** The condition fields in display order. */
 export const CONDITION_FIELDS = Object.keys(CONDITION_VALUES) as ConditionField[];
 
 /** Longest texts kept. */
@@ -121,6 +123,7 @@ export const DefectCreateSchema = z.object({
   action: optionalText('Action', TEXT_LIMITS.action),
   closedAt: z.preprocess(blankToNull, instantText('Closed at').nullable()).optional(),
 });
+/** A parsed report. */
 export type DefectCreate = z.output<typeof DefectCreateSchema>;
 
 /** The report form: the same fields, with a symptom required (a person reporting always says what is wrong). */
@@ -133,7 +136,7 @@ export const DefectReportFormSchema = DefectCreateSchema.pick({ vin: true, posit
     .refine((s) => new Date(s).getTime() <= Date.now() + 5 * 60_000, 'Reported at cannot be in the future')
     .transform((s) => new Date(s).toISOString()),
 });
-export type DefectReportFormInput = z.input<typeof DefectReportFormSchema>;
+/** What the report form sends. */
 export type DefectReportForm = z.output<typeof DefectReportFormSchema>;
 
 /** One part used on a repair. */
@@ -143,6 +146,7 @@ export const PartSchema = z.object({
   quantity: z.preprocess((v) => (typeof v === 'string' && /^\d+$/.test(v.trim()) ? Number(v) : v), z.number('Quantity must be a number').int('Quantity must be whole').min(1, 'Quantity is at least 1').max(999, 'Quantity is at most 999')),
   unitCostMinor: optionalInt('Unit cost', 0, 100_000_000).transform((v) => v ?? null),
 });
+/** A part line as stored and answered. */
 export type Part = z.output<typeof PartSchema>;
 
 /** Money typed by a person ("24.50", "24,5", "1200") as minor units; null when empty, undefined when not money. */
@@ -193,7 +197,7 @@ export const DiagnosisFormSchema = z.object({
   ...DiagnosisFields,
   parts: z.array(PartFormSchema).max(MAX_PARTS, `At most ${MAX_PARTS} part lines`),
 });
-export type DiagnosisFormInput = z.input<typeof DiagnosisFormSchema>;
+/** What the diagnosis form sends. */
 export type DiagnosisFormOutput = z.output<typeof DiagnosisFormSchema>;
 
 /**
@@ -218,28 +222,8 @@ export const DefectPatchSchema = z.object({
   status: z.enum(DEFECT_STATUS_VALUES, `status must be one of ${DEFECT_STATUS_VALUES.join(', ')}`).optional(),
   reason: optionalText('Reason', TEXT_LIMITS.reason),
 });
+/** A parsed change. */
 export type DefectPatch = z.output<typeof DefectPatchSchema>;
-
-/** The fields a person edits on the defect page (the version-checked, diffable part of a record). */
-export const EDITABLE_FIELDS = [
-  'symptom',
-  'dtcs',
-  'odometerKm',
-  'reporterName',
-  'position',
-  'moduleCode',
-  'moisture',
-  'membraneCondition',
-  'sealCondition',
-  'drainCondition',
-  'connectorCondition',
-  'rootCause',
-  'action',
-  'notes',
-  'labourMinutes',
-  'parts',
-] as const;
-export type EditableField = (typeof EDITABLE_FIELDS)[number];
 
 /** The release verification: both checks done (Seepline records them; it certifies nothing). */
 export const VerificationInputSchema = z.object({
@@ -249,6 +233,7 @@ export const VerificationInputSchema = z.object({
   at: instantText('Checked at').optional(),
   note: optionalText('How it was checked', TEXT_LIMITS.verificationNote),
 });
+/** A parsed verification. */
 export type VerificationInput = z.output<typeof VerificationInputSchema>;
 
 /** Move a defect to another status (POST /api/defects/{id}/transitions). */
@@ -258,6 +243,7 @@ export const TransitionRequestSchema = z.object({
   reason: optionalText('Reason', TEXT_LIMITS.reason),
   verification: VerificationInputSchema.optional(),
 });
+/** A parsed step request. */
 export type TransitionRequest = z.output<typeof TransitionRequestSchema>;
 
 /** Photo upload fields besides the file. */
