@@ -61,7 +61,7 @@ const q = db.$client;
 const all = <T>(sql: string, ...params: unknown[]): T[] => q.prepare(sql).all(...params) as T[];
 const one = <T>(sql: string, ...params: unknown[]): T => q.prepare(sql).get(...params) as T;
 
-for (const t of ['depots', 'modules', 'users', 'user_depots', 'vehicles', 'defects', 'defect_codes', 'defect_parts', 'audit_log']) {
+for (const t of ['depots', 'modules', 'users', 'user_depots', 'vehicles', 'defects', 'defect_codes', 'defect_parts', 'defect_transitions', 'audit_log']) {
   console.log(`rows ${t}: ${one<{ n: number }>(`select count(*) n from ${t}`).n}`);
 }
 

@@ -42,7 +42,7 @@ function requireEmpty(db: Db | Tx): void {
 }
 
 /**
- * Insert the demo scenario (depots, catalogue, people, vehicles, defects with their codes, parts and audit rows)
+ * Insert the demo scenario (depots, catalogue, people, vehicles, defects with their codes, parts, timelines and audit rows)
  * into an empty, migrated database, all in one transaction. Throws if any depot, person or module exists.
  */
 export async function seedDemo(db: Db, opts: { seed?: number; today?: string } = {}): Promise<SeedSummary> {
@@ -62,6 +62,8 @@ export async function seedDemo(db: Db, opts: { seed?: number; today?: string } =
       for (const c of chunks(data.defects)) tx.insert(schema.defects).values(c).run();
       for (const c of chunks(data.defectCodes)) tx.insert(schema.defectCodes).values(c).run();
       for (const c of chunks(data.defectParts)) tx.insert(schema.defectParts).values(c).run();
+      for (const c of chunks(data.defectTransitions)) tx.insert(schema.defectTransitions).values(c).run();
+      if (data.settings.length) tx.insert(schema.settings).values(data.settings).onConflictDoNothing().run();
       for (const c of chunks(data.auditLog)) tx.insert(schema.auditLog).values(c).run();
     },
     { behavior: 'immediate' },

@@ -42,6 +42,7 @@ type DefectRow = typeof schema.defects.$inferInsert;
 type DefectCodeRow = typeof schema.defectCodes.$inferInsert;
 type DefectPartRow = typeof schema.defectParts.$inferInsert;
 type AuditRow = typeof schema.auditLog.$inferInsert;
+type TransitionRow = typeof schema.defectTransitions.$inferInsert;
 type Moisture = (typeof schema.MOISTURE)[number];
 type Status = (typeof schema.DEFECT_STATUSES)[number];
 
@@ -209,7 +210,11 @@ export interface DemoDataset {
   defects: Array<DefectRow & { id: number }>;
   defectCodes: DefectCodeRow[];
   defectParts: DefectPartRow[];
+  /** The status changes behind each defect's status (its timeline), from the same milestones. */
+  defectTransitions: TransitionRow[];
   auditLog: AuditRow[];
+  /** Settings rows (the labour rate that the seeded costs use). */
+  settings: Array<{ key: string; value: string }>;
   planted: PlantedSummary;
 }
 
@@ -471,6 +476,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
   const defectCodes: DefectCodeRow[] = [];
   const defectParts: DefectPartRow[] = [];
   const auditLog: AuditRow[] = [];
+  const defectTransitions: TransitionRow[] = [];
   const refCounters = new Map<number, number>();
   const offRoad = new Map<number, number>();
 
@@ -585,7 +591,8 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     const diagnosed = reached('awaiting_parts');
     const repaired = reached('repaired');
     const verified = reached('verified');
-    const needsVerification = fn === 'window_lifter' || fn === 'door_control';
+    // The app's release-verification rule (src/lib/defects/transitions.ts): window lifters, door modules, door harnesses.
+    const needsVerification = fn === 'window_lifter' || fn === 'door_control' || fn === 'harness';
     const reporterRoll = rng.next();
     const reportedById = reporterRoll < 0.1 ? null : reporterRoll < 0.55 ? rng.pick(team.supervisors) : technician;
     const days = (ev.atMs - v.inServiceMs) / DAY_MS;
@@ -621,12 +628,14 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
       labourMinutes: repaired ? labourMinutes : null,
       costMinor: repaired ? costMinor : null,
       notes,
+      reporterName: reportedById === null ? 'Driver' : null,
       reportedById,
       assignedToId: status === 'reported' || status === 'cancelled' ? null : technician,
       verifiedReinit: verified && needsVerification ? true : null,
       verifiedReversal: verified && needsVerification ? true : null,
       verifiedById: verified && needsVerification ? technician : null,
       verifiedAt: verified && needsVerification ? verifiedAt : null,
+      verificationNote: verified && needsVerification ? 'Test rod at the top of travel: window reversed' : null,
       repeatOfId: null,
       closedAt: status === 'closed' ? closedAt : null,
       closedAtText: null,
@@ -637,6 +646,19 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     if (storedDtcs) splitDtcs(storedDtcs).forEach((c, k) => defectCodes.push({ defectId: id, seq: k + 1, code: c.code, failureType: c.failureType }));
     if (repaired) for (const p of parts) defectParts.push({ defectId: id, partNumber: p.partNumber, description: p.description, quantity: 1, unitCostMinor: p.unitCostMinor });
     auditLog.push({ at: ev.atMs, userId: null, actor: 'seed', entity: 'defect', entityId: String(id), action: 'create', field: null, oldValue: null, newValue: ref });
+
+    // The timeline: the steps that led to this status, at the milestone times above (no random draws here).
+    const step = (fromStatus: Status, toStatus: Status, at: number, userId: number, reason: string | null = null) =>
+      defectTransitions.push({ defectId: id, fromStatus, toStatus, at, userId, actor: null, reason });
+    if (status === 'cancelled') step('reported', 'cancelled', diagStartAt, team.supervisors[0] ?? technician, 'Duplicate report');
+    else if (reached('diagnosing')) {
+      step('reported', 'diagnosing', diagStartAt, technician);
+      const viaParts = partsNeeded && reached('awaiting_parts');
+      if (viaParts) step('diagnosing', 'awaiting_parts', milestones[1] ?? diagStartAt, technician);
+      if (repaired) step(viaParts ? 'awaiting_parts' : 'diagnosing', 'repaired', repairedAt, technician);
+      if (verified) step('repaired', 'verified', verifiedAt, technician);
+      if (status === 'closed') step('verified', 'closed', closedAt, technician);
+    }
 
     const open = status === 'reported' || status === 'diagnosing' || status === 'awaiting_parts';
     const keepsOffRoad = fn === 'window_lifter' || fn === 'door_control' || fn === 'lock_actuator';
@@ -703,7 +725,9 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     defects,
     defectCodes,
     defectParts,
+    defectTransitions,
     auditLog,
+    settings: [{ key: 'labour_rate_minor_per_hour', value: String(LABOUR_RATE_MINOR_PER_HOUR) }],
     planted: {
       buildFrom: monthText(buildFromIndex),
       buildTo: monthText(buildToIndex),

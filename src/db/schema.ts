@@ -197,12 +197,16 @@ export const defects = sqliteTable(
     labourMinutes: integer('labour_minutes'),
     costMinor: integer('cost_minor'),
     notes: text('notes'),
+    /** Who noticed the fault when it is not the person who entered it (a driver, another depot). */
+    reporterName: text('reporter_name'),
     reportedById: integer('reported_by_id').references(() => users.id),
     assignedToId: integer('assigned_to_id').references(() => users.id),
     verifiedReinit: integer('verified_reinit', { mode: 'boolean' }),
     verifiedReversal: integer('verified_reversal', { mode: 'boolean' }),
     verifiedById: integer('verified_by_id').references(() => users.id),
     verifiedAt: integer('verified_at'),
+    /** How the release check was done (free text, e.g. "test rod at the top of travel"). */
+    verificationNote: text('verification_note'),
     repeatOfId: integer('repeat_of_id'),
     closedAt: integer('closed_at'),
     closedAtText: text('closed_at_text'),
@@ -263,10 +267,37 @@ export const attachments = sqliteTable(
     height: integer('height'),
     /** JSON of the analysis for a trace capture. */
     analysis: text('analysis'),
+    /** A photo's thumbnail under UPLOAD_DIR (kind `photo`). */
+    thumbPath: text('thumb_path'),
+    /** What a photo shows, in the uploader's words. */
+    caption: text('caption'),
     createdById: integer('created_by_id').references(() => users.id),
     createdAt: createdAt(),
   },
-  (t) => [index('attachments_defect_idx').on(t.defectId)],
+  (t) => [index('attachments_defect_idx').on(t.defectId), index('attachments_sha_idx').on(t.sha256)],
+);
+
+/**
+ * Every status change of a defect: from, to, who and when (the defect page's timeline). Written by the
+ * workflow (src/server/defect-workflow.ts) in the same transaction as the change and its audit rows.
+ */
+export const defectTransitions = sqliteTable(
+  'defect_transitions',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    defectId: integer('defect_id')
+      .notNull()
+      .references(() => defects.id, { onDelete: 'cascade' }),
+    fromStatus: text('from_status', { enum: DEFECT_STATUSES }).notNull(),
+    toStatus: text('to_status', { enum: DEFECT_STATUSES }).notNull(),
+    at: integer('at').notNull(),
+    userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
+    /** Who acted when there is no user: `import`, `seed`, `cli`, `system`. */
+    actor: text('actor'),
+    /** Why (required when cancelling or re-opening). */
+    reason: text('reason'),
+  },
+  (t) => [index('defect_transitions_defect_idx').on(t.defectId, t.at)],
 );
 
 /** One row per changed field (or one per event with field null): who, when, what, old → new. */

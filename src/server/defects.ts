@@ -1,21 +1,16 @@
 /**
- * Defects: the list with its filters (scoped to the caller's depots), one record with decoded fault codes
- * and its audit trail, create, change (with a version check) and delete.
+ * Defects: the list with its filters (scoped to the caller's depots). One record, create, change (with a
+ * version check), the lifecycle and delete are in defect-record.ts and re-exported here.
  */
 import { and, eq, gte, inArray, lt, lte, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
-import { defectParts, defects, depots, modules, users, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
+import { defects, depots, modules, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
 import type { DefectListQuery, ListResponse } from '@/lib/contracts/lists';
-import { cellsFromObject, validateRecord } from '@/lib/imports/rows';
-import { describeDtc, parseDtc } from '@/lib/dtc/dtc';
 import { parseInstant } from '@/lib/dates/dates';
-import { inScope, requireDepotScope, type SessionUser } from './auth';
-import { conflict, HttpError, invalid, notFound } from './http';
+import type { SessionUser } from './auth';
+import { invalid } from './http';
 import { depotScope, iso, likePattern, listParam, orderBy, paging } from './list-helpers';
-import { applyDefectRow } from './imports';
-import { refreshRepeats } from './repeats';
-import { listAudit, writeAudit, type Actor } from './audit';
 
 const OPEN = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'];
 const earlier = alias(defects, 'earlier');
@@ -220,137 +215,5 @@ export function listDefectsForExport(user: SessionUser, q: DefectListQuery, now 
   return defectListSelect().where(where).orderBy(...order).all().map(defectJson);
 }
 
-function loadDefect(id: number): DefectSel | undefined {
-  return getDb()
-    .select(defectSelect)
-    .from(defects)
-    .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
-    .innerJoin(depots, eq(depots.id, defects.depotId))
-    .innerJoin(modules, eq(modules.id, defects.moduleId))
-    .leftJoin(earlier, eq(earlier.id, defects.repeatOfId))
-    .where(eq(defects.id, id))
-    .get();
-}
-
-/** One defect with decoded codes, people and audit trail, inside the caller's depots (else 404). */
-export function getDefect(user: SessionUser, id: number) {
-  const r = loadDefect(id);
-  if (!r) throw notFound('Defect');
-  requireDepotScope(user, r.d.depotId, 'Defect');
-  const d = r.d;
-  const db = getDb();
-  const name = (uid: number | null) => (uid ? (db.select({ name: users.name }).from(users).where(eq(users.id, uid)).get()?.name ?? null) : null);
-  const codes = (d.dtcs ? d.dtcs.split(' ') : []).map((text) => {
-    const p = parseDtc(text);
-    return p.ok
-      ? { display: p.display, code: p.code, failureType: p.failureType, system: p.system, scope: p.scope, description: describeDtc(p) }
-      : { display: text, code: text, failureType: null, system: null, scope: null, description: 'Not a valid fault code' };
-  });
-  return {
-    ...defectJson(r),
-    codes,
-    membraneCondition: d.membraneCondition,
-    sealCondition: d.sealCondition,
-    drainCondition: d.drainCondition,
-    connectorCondition: d.connectorCondition,
-    notes: d.notes,
-    parts: db
-      .select({ partNumber: defectParts.partNumber, description: defectParts.description, quantity: defectParts.quantity, unitCostMinor: defectParts.unitCostMinor })
-      .from(defectParts)
-      .where(eq(defectParts.defectId, d.id))
-      .all(),
-    reportedBy: name(d.reportedById),
-    assignedTo: name(d.assignedToId),
-    verification: d.verifiedAt
-      ? { reinitialised: d.verifiedReinit, reversalVerified: d.verifiedReversal, by: name(d.verifiedById), at: iso(d.verifiedAt) }
-      : null,
-    audit: listAudit('defect', String(d.id)),
-  };
-}
-
-function vehicleForWrite(user: SessionUser, vin: string) {
-  const v = getDb()
-    .select({ id: vehicles.id, depotId: vehicles.depotId, timezone: depots.timezone })
-    .from(vehicles)
-    .innerJoin(depots, eq(depots.id, vehicles.depotId))
-    .where(eq(vehicles.vin, vin))
-    .get();
-  if (!v || !inScope(user, v.depotId)) {
-    throw new HttpError(422, 'INVALID_INPUT', `No vehicle with VIN ${vin} in your depots.`, [{ path: 'vin', message: 'Unknown vehicle' }]);
-  }
-  return v;
-}
-
-function moduleForWrite(code: string): number {
-  const m = getDb().select({ id: modules.id }).from(modules).where(eq(modules.code, code)).get();
-  if (!m) throw new HttpError(422, 'INVALID_INPUT', `No module type ${code} in the catalogue.`, [{ path: 'module_code', message: 'Unknown module type' }]);
-  return m.id;
-}
-
-function validatedDefect(body: Record<string, unknown>) {
-  const r = validateRecord('defects', cellsFromObject('defects', body));
-  if (!r.value || r.errors.length) {
-    throw new HttpError(422, 'INVALID_INPUT', r.errors.map((e) => e.message).join(' '), r.errors.map((e) => ({ path: e.column, message: e.message })));
-  }
-  return r.value;
-}
-
-/** Report a defect on a vehicle in the caller's depots. */
-export function createDefect(user: SessionUser, body: Record<string, unknown>, actor: Actor) {
-  const row = validatedDefect({ reportedAt: new Date().toISOString(), ...body });
-  const v = vehicleForWrite(user, row.vin);
-  const moduleId = moduleForWrite(row.moduleCode);
-  const db = getDb();
-  if (row.ref && db.select({ id: defects.id }).from(defects).where(eq(defects.ref, row.ref)).get()) throw conflict(`A defect with ref ${row.ref} already exists.`);
-  const id = db.transaction((tx) => {
-    const out = applyDefectRow(tx, row, { vehicleId: v.id, depotId: v.depotId, timezone: v.timezone, moduleId }, actor, 'api');
-    if (out.outcome !== 'inserted') throw conflict('The same defect (vehicle, time, door and module) is already recorded.', { id: out.id });
-    if ('userId' in actor) tx.update(defects).set({ reportedById: actor.userId }).where(eq(defects.id, out.id)).run();
-    refreshRepeats(tx, [v.id]);
-    return out.id;
-  });
-  return getDefect(user, id);
-}
-
-/** Change a defect's recorded fields; a stale `version` gets 409 with the current record. */
-export function updateDefect(user: SessionUser, id: number, body: Record<string, unknown>, actor: Actor) {
-  const current = getDefect(user, id);
-  if (body.version !== undefined && Number(body.version) !== current.version) {
-    throw conflict('This defect was changed by someone else since you opened it.', { current });
-  }
-  const merged = {
-    ref: current.ref,
-    vin: current.vin,
-    reportedAt: current.reportedAt,
-    position: current.position,
-    moduleCode: current.moduleCode,
-    symptom: current.symptom,
-    dtcs: current.dtcs,
-    moisture: current.moisture,
-    rootCause: current.rootCause,
-    action: current.action,
-    odometerKm: current.odometerKm,
-    closedAt: current.closedAt,
-    ...body,
-  };
-  const row = validatedDefect(merged);
-  if (row.ref !== current.ref) throw invalid('ref cannot be changed.', [{ path: 'ref', message: 'ref is fixed' }]);
-  const v = vehicleForWrite(user, row.vin);
-  const moduleId = moduleForWrite(row.moduleCode);
-  getDb().transaction((tx) => {
-    applyDefectRow(tx, row, { vehicleId: v.id, depotId: v.depotId, timezone: v.timezone, moduleId }, actor, 'api');
-    refreshRepeats(tx, [...new Set([v.id, current.vehicleId])]);
-  });
-  return getDefect(user, id);
-}
-
-/** Delete a defect (admins and managers; the audit trail keeps the deletion). */
-export function deleteDefect(user: SessionUser, id: number, actor: Actor): void {
-  const current = getDefect(user, id);
-  getDb().transaction((tx) => {
-    tx.update(defects).set({ repeatOfId: null }).where(eq(defects.repeatOfId, id)).run();
-    tx.delete(defects).where(eq(defects.id, id)).run();
-    writeAudit(tx, actor, { entity: 'defect', entityId: String(id), action: 'delete', oldValue: current.ref });
-    refreshRepeats(tx, [current.vehicleId]);
-  });
-}
+// One record, reporting, changing, lifecycle steps and deleting live in defect-record.ts.
+export { createDefect, currentRepeatWindowDays, deleteDefect, getDefect, listTransitions, transitionDefect, updateDefect } from './defect-record';

@@ -43,4 +43,26 @@ describe('computeRepeats', () => {
     expect(computeRepeats([earlier, later], 30).get(2)).toBeNull();
     expect(computeRepeats([earlier, later], 45).get(2)).toBe(1);
   });
+  it('counts whole days to the millisecond: 90 days after closing is in, one millisecond more is out', () => {
+    const at = (ms: number) => computeRepeats([earlier, { ...base, id: 2, reportedAt: t0 + ms, closedAt: null }]).get(2);
+    expect(at(90 * DAY)).toBe(1);
+    expect(at(90 * DAY + 1)).toBeNull();
+  });
+  it('a defect reported before the earlier one was closed is not its repeat', () => {
+    const later = { ...base, id: 2, reportedAt: t0 - DAY, closedAt: null };
+    expect(computeRepeats([earlier, later]).get(2)).toBeNull();
+  });
+  it('a cancelled earlier defect is no earlier repair, and a cancelled later one is no repeat', () => {
+    const cancelledEarlier = { ...earlier, cancelled: true };
+    const later = { ...base, id: 2, reportedAt: t0 + 10 * DAY, closedAt: null };
+    expect(computeRepeats([cancelledEarlier, later]).get(2)).toBeNull();
+    expect(computeRepeats([earlier, { ...later, cancelled: true }]).get(2)).toBeNull();
+  });
+  it('another vehicle is not a repeat', () => {
+    const later = { ...base, id: 2, vehicleId: 2, reportedAt: t0 + 10 * DAY, closedAt: null };
+    expect(computeRepeats([earlier, later]).get(2)).toBeNull();
+  });
+  it('gives nothing for an empty list', () => {
+    expect(computeRepeats([]).size).toBe(0);
+  });
 });

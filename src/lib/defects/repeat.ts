@@ -2,6 +2,9 @@
  * Repeat-repair detection. A defect is a repeat when the same vehicle had a closed defect on the same door
  * position and the same module function, closed no more than `windowDays` (default 90, common practice for
  * a "comeback" window) before the new defect was reported. It links to the most recently closed such defect.
+ * Cancelled defects take no part: they are never the earlier repair, and never a repeat themselves (a
+ * cancelled report was no repair). Re-opening a defect clears its closed time, so the later defects that
+ * repeated it lose the link until it is closed again.
  */
 export const DEFAULT_REPEAT_WINDOW_DAYS = 90;
 const DAY_MS = 86_400_000;
@@ -31,6 +34,10 @@ export function computeRepeats(defects: RepeatCandidate[], windowDays = DEFAULT_
   for (const g of groups.values()) {
     const closed = g.filter((d) => d.closedAt !== null && !d.cancelled).sort((a, b) => a.closedAt! - b.closedAt!);
     for (const d of g) {
+      if (d.cancelled) {
+        out.set(d.id, null);
+        continue;
+      }
       let best: RepeatCandidate | null = null;
       for (const e of closed) {
         if (e.id === d.id) continue;

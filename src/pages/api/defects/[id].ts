@@ -1,6 +1,6 @@
-import { z } from 'zod';
 import { handle, idParam, json, readJson, methodNotAllowed } from '@/server/http';
 import { requirePermission, actorOf } from '@/server/auth';
+import { DefectPatchSchema } from '@/lib/contracts/defects';
 import { deleteDefect, getDefect, updateDefect } from '@/server/defects';
 
 export const GET = handle((ctx) => {
@@ -8,11 +8,12 @@ export const GET = handle((ctx) => {
   return json(getDefect(user, idParam(ctx.params.id, 'Defect')));
 });
 
+/** Change the fields given; `version` makes it conditional (409 with the current record when stale). */
 export const PATCH = handle(async (ctx) => {
   const user = requirePermission(ctx, 'defect:write');
   const id = idParam(ctx.params.id, 'Defect');
-  const body = await readJson(ctx, z.record(z.string(), z.unknown()));
-  return json(updateDefect(user, id, body, actorOf(user)));
+  const patch = await readJson(ctx, DefectPatchSchema);
+  return json(updateDefect(user, id, patch, actorOf(user)));
 });
 
 export const DELETE = handle((ctx) => {
