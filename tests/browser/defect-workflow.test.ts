@@ -7,7 +7,7 @@ import Database from 'better-sqlite3';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { demoUser, E2E_DB_PATH, loginAs, open, useBrowser } from './fixtures';
+import { baseUrl, demoUser, E2E_DB_PATH, loginAs, open, useBrowser } from './fixtures';
 
 const h = useBrowser();
 let db: Database.Database;
@@ -29,9 +29,9 @@ beforeAll(() => {
 });
 afterAll(() => db?.close());
 
-/** Defects reported in the last 90 days in GHQ (an independent count from the database the server uses). */
-function reportedLast90(): number {
-  return (db.prepare("select count(*) n from defects x join depots d on d.id = x.depot_id where d.code = 'GHQ' and x.reported_at >= ?").get(Date.now() - 90 * 86_400_000) as { n: number }).n;
+/** Defects reported at GHQ since the start of a UTC day (an independent count from the database the server uses). */
+function reportedAtGhqSince(day: string): number {
+  return (db.prepare("select count(*) n from defects x join depots d on d.id = x.depot_id where d.code = 'GHQ' and x.reported_at >= ?").get(Date.parse(`${day}T00:00:00Z`)) as { n: number }).n;
 }
 
 const status = (page: Page) => page.getByTestId('defect-status');
@@ -229,13 +229,18 @@ describe('the GHQ supervisor finds the defect', () => {
     await page.getByRole('group', { name: 'Next steps' }).getByRole('button', { name: 'Re-open' }).waitFor();
   });
 
-  it('on the Overview, counted among the defects reported in the last 90 days', async () => {
+  it('on the Overview, counted among the defects GHQ reported in the last 12 months', async () => {
     const page = h.page;
     await open(page, '/');
-    const figure = page.getByRole('link', { name: /Reported, 90 days/ });
+    // The "Reported" count of the GHQ row in "Repeats by depot" links to the list from the window's first day.
+    const figure = page.getByRole('link', { name: /^GHQ: \d+ reported$/ });
     await figure.waitFor();
-    expect(await figure.textContent()).toContain(String(reportedLast90()));
-    expect(db.prepare("select count(*) n from defects where ref = ? and reported_at >= ?").get(ref, Date.now() - 90 * 86_400_000)).toEqual({ n: 1 });
+    const from = new URL((await figure.getAttribute('href'))!, baseUrl()).searchParams.get('reportedFrom');
+    expect(from).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    const expected = reportedAtGhqSince(from!);
+    expect(await figure.getAttribute('aria-label')).toBe(`GHQ: ${expected} reported`);
+    // The defect this file reported is one of them.
+    expect(db.prepare('select count(*) n from defects where ref = ? and reported_at >= ?').get(ref, Date.parse(`${from}T00:00:00Z`))).toEqual({ n: 1 });
   });
 });
 

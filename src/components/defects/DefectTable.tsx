@@ -6,7 +6,7 @@
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { ChevronDown, ChevronUp, Download, Plus, X } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { DataTable } from '@/components/ui/DataTable';
 import { MOISTURE_LABELS, POSITION_LABELS, STATUS_LABELS } from '@/components/labels';
 import { useDepotOptions } from '@/components/vehicles/queries';
@@ -224,6 +224,7 @@ function DateField({ label, value, onChange, min, max }: { label: string; value:
 
 /** Island root. */
 export default function DefectTable(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <DefectList {...props} />

@@ -5,7 +5,7 @@
 import { useEffect, useId, useRef, useState, type DragEvent } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { CheckCircle2, ChevronRight, Download, FileText, Upload, X } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
 import { IssueTable } from './IssueTable';
 import { downloadCsv, IMPORT_FORMATS, IMPORT_KINDS, templateCsv, type ImportKind } from './formats';
@@ -33,6 +33,7 @@ function formatBytes(b: number): string {
 
 /** Island root of /import. */
 export default function ImportView(props: { initialKind?: string | undefined }) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <Importer {...props} />

@@ -2,7 +2,7 @@
 import { useEffect, useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Plus, Search } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
 import { can, type Role } from '@/lib/auth/permissions';
 import { FUNCTION_LABELS } from '@/components/labels';
@@ -16,6 +16,7 @@ type Props = { role: Role; initialParams?: Record<string, string> };
 
 /** Island root of /modules. */
 export default function ModulesView(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <Modules {...props} />

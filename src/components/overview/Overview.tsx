@@ -7,7 +7,7 @@
 import type { ReactNode } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Plus } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { STATUS_BADGE, STATUS_LABELS, POSITION_LABELS } from '@/components/labels';
 import { formatInstantDate } from '@/components/defects/format';
 import { OPEN_STATUSES, type OverviewDefect, type OverviewResponse } from '@/lib/contracts/overview';
@@ -332,6 +332,7 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
 
 /** Island root. */
 export default function Overview(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <OverviewBody {...props} />

@@ -6,7 +6,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Check, X } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import type { PatternRecordDetail } from '@/lib/contracts/patterns';
 import { explainCohort, explainTrend, formatProbability, formatRatio, formatShare } from '@/lib/patterns/explain';
 import { formatBuildRange } from '@/lib/patterns/records';
@@ -461,6 +461,7 @@ function Detail({ id, canWrite }: Props) {
 
 /** Island root. */
 export default function PatternDetail(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <Detail {...props} />

@@ -7,7 +7,7 @@
 import { useEffect, useMemo, useRef } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RefreshCw } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
 import type { PatternsReportCohort, PatternStatusValue } from '@/lib/contracts/patterns';
 import { DataTable } from '@/components/ui/DataTable';
@@ -232,6 +232,7 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
 
 /** Island root. */
 export default function PatternsView(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <PatternsList {...props} />

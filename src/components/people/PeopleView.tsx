@@ -2,7 +2,7 @@
 import { useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Plus, Search } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { ROLE_LABELS, ROLE_VALUES } from '@/lib/auth/permissions';
 import { DataTable } from '@/components/ui/DataTable';
 import { Dialog } from '@/components/ui/Dialog';
@@ -16,6 +16,7 @@ type Props = { meId: number };
 
 /** Island root of /people. */
 export default function PeopleView(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <People {...props} />

@@ -4,7 +4,7 @@
  */
 import { useEffect, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { ApiError } from '@/lib/client/api-client';
 import { FormField, fieldAria } from '@/components/ui/FormField';
 import { formatInstant } from '@/components/defects/format';
@@ -172,6 +172,7 @@ function SettingsForm() {
 
 /** Island root. */
 export default function SettingsView() {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <SettingsForm />

@@ -6,7 +6,7 @@
 import { useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Activity, Plus } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { formatInstant } from '@/components/defects/format';
 import { DIRECTION_LABELS, verdictBadge, verdictLabel } from './labels';
 import { formatDeg, formatHz } from './format';
@@ -21,6 +21,7 @@ type Props = {
 
 /** Island root. */
 export default function DefectTraces(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <TraceListForDefect {...props} />

@@ -11,7 +11,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import { ChevronLeft, ChevronRight, Maximize2, ZoomIn, ZoomOut } from 'lucide-react';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { toLinePoints } from '@/lib/traces/plot-window';
 import type { TraceSamples } from '@/lib/contracts/traces';
 import { useContainerWidth } from '@/components/defects/use-container-width';
@@ -47,6 +47,7 @@ const FONT = '12px "Source Sans 3", ui-sans-serif, system-ui, sans-serif';
 
 /** Island root. */
 export default function TracePlot(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <Plot {...props} />

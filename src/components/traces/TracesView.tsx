@@ -5,7 +5,7 @@
  */
 import { useCallback, useEffect, useMemo } from 'react';
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { apiFetch } from '@/lib/client/api-client';
 import { useUrlState } from '@/lib/client/url-state';
 import type { ListResponse } from '@/lib/contracts/lists';
@@ -28,6 +28,7 @@ type Props = {
 
 /** Island root of /traces. */
 export default function TracesView(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <TraceList {...props} />

@@ -5,7 +5,7 @@
  */
 import { useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { ApiError } from '@/lib/client/api-client';
 import { formatInstant } from '@/components/defects/format';
 import { VEHICLE_STATUS_BADGE, VEHICLE_STATUS_LABELS } from './columns';
@@ -84,6 +84,7 @@ function Toggle({ vin, version: version0, status: status0, offRoadSince: since0,
 
 /** Island root. */
 export default function OffRoadToggle(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <Toggle {...props} />

@@ -4,7 +4,7 @@
  */
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { queryClient } from '@/lib/client/query-client';
+import { useIslandQueryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
 import { DataTable } from '@/components/ui/DataTable';
 import { PARKING_LABELS } from '@/components/labels';
@@ -124,6 +124,7 @@ function VehicleList({ initialParams }: Props) {
 
 /** Island root. */
 export default function VehicleTable(props: Props) {
+  const queryClient = useIslandQueryClient();
   return (
     <QueryClientProvider client={queryClient}>
       <VehicleList {...props} />
