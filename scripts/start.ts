@@ -61,7 +61,10 @@ async function prepareDatabase(): Promise<void> {
     const { seedDemo } = await import('../seed/demo');
     const t = Date.now();
     const s = await seedDemo(db);
-    console.log(`Loaded the demo scenario into ${databasePath()} in ${Date.now() - t} ms: ${JSON.stringify(s)}`);
+    // The demo opens with its patterns on record, as if a fleet manager had looked at Patterns today.
+    const { syncPatternRecords } = await import('../src/server/patterns-records');
+    const sync = syncPatternRecords(null);
+    console.log(`Loaded the demo scenario into ${databasePath()} in ${Date.now() - t} ms: ${JSON.stringify({ ...s, patternRecords: sync.created })}`);
   }
   closeDb();
 }

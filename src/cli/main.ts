@@ -73,7 +73,10 @@ async function main(argv: string[]): Promise<number> {
         const { seedDemo } = await import('../../seed/demo');
         try {
           const s = await seedDemo(getDb());
-          console.log(`Demo scenario loaded: ${JSON.stringify(s)}`);
+          // The demo opens with its patterns on record, as if a fleet manager had looked at Patterns today.
+          const { syncPatternRecords } = await import('../server/patterns-records');
+          const sync = syncPatternRecords(null);
+          console.log(`Demo scenario loaded: ${JSON.stringify({ ...s, patternRecords: sync.created })}`);
         } catch (e) {
           throw new HandledError((e as Error).message);
         }

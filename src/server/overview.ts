@@ -3,17 +3,19 @@
  * work by depot and status, vehicles off road, the oldest open defects, and, over the trailing twelve UTC
  * calendar months, defects reported and repeats per month, per depot and per module type. Six grouped
  * queries whatever the fleet size (see docs/benchmarks.md); every window is whole UTC days so that each figure
- * equals the Defects list filtered by its link.
+ * equals the Defects list filtered by its link. Roles that read patterns also get the open pattern records.
  */
 import { and, asc, eq, gte, inArray, isNull, lt, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
-import { OPEN_STATUSES, type OpenStatus, type OverviewDefect, type OverviewResponse, type RepeatCounts } from '@/lib/contracts/overview';
+import { OPEN_STATUSES, type OpenStatus, type OverviewDefect, type OverviewPatterns, type OverviewResponse, type RepeatCounts } from '@/lib/contracts/overview';
+import { can } from '@/lib/auth/permissions';
 import { fillMonths, monthWindows, repeatRate } from '@/lib/overview/windows';
 import type { SessionUser } from './auth';
 import { depotScope, iso } from './list-helpers';
 import { repeatWindowDays } from './repeats';
+import { listPatternRecords } from './patterns-records';
 
 const DAY_MS = 86_400_000;
 /** Days after which an open defect counts as "open for long" on the Overview. */
@@ -188,5 +190,45 @@ export function getOverview(user: SessionUser, now = Date.now()): OverviewRespon
     trend,
     oldest,
     mine,
+    patterns: overviewPatterns(user),
+  };
+}
+
+/** How many pattern records the Overview lists. */
+export const OVERVIEW_PATTERN_ROWS = 4;
+
+/**
+ * The open pattern records the caller may see (no report is run here: records are brought up to date when someone
+ * opens Patterns, and at seed time), those needing attention first.
+ */
+function overviewPatterns(user: SessionUser): OverviewPatterns | null {
+  if (!can(user.role, 'pattern:read')) return null;
+  const { items, lastSync } = listPatternRecords(user, {});
+  const open = items.filter((i) => i.status !== 'dismissed' && i.status !== 'resolved');
+  const attention = (i: (typeof items)[number]) => (i.status === 'new' && i.significant) || (i.status !== 'new' && i.changes.changed);
+  const rows = open
+    .map((i) => ({ i, needsAttention: attention(i) }))
+    .sort((a, b) => Number(b.needsAttention) - Number(a.needsAttention) || Number(b.i.waterIngress) - Number(a.i.waterIngress) || (b.i.rateRatio ?? 0) - (a.i.rateRatio ?? 0));
+  return {
+    open: open.length,
+    needsAttention: rows.filter((r) => r.needsAttention).length,
+    waterIngressOpen: open.filter((i) => i.waterIngress).length,
+    lastSyncAt: lastSync?.at ?? null,
+    items: rows.slice(0, OVERVIEW_PATTERN_ROWS).map(({ i, needsAttention }) => ({
+      id: i.id,
+      moduleCode: i.moduleCode,
+      moduleName: i.moduleName,
+      exposureBand: i.exposureBand,
+      buildFrom: i.buildFrom,
+      buildTo: i.buildTo,
+      failures: i.failures,
+      expected: i.expected,
+      rateRatio: i.rateRatio,
+      waterIngress: i.waterIngress,
+      significant: i.significant,
+      status: i.status,
+      changes: i.status === 'new' ? [] : i.changes.summary,
+      needsAttention,
+    })),
   };
 }

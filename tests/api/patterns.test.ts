@@ -18,6 +18,8 @@ import * as sync from '../../src/pages/api/patterns/sync';
 import * as record from '../../src/pages/api/patterns/[id]';
 import * as status from '../../src/pages/api/patterns/[id]/status';
 import * as evidence from '../../src/pages/api/patterns/[id]/evidence.csv';
+import * as overview from '../../src/pages/api/overview';
+import type { OverviewResponse } from '../../src/lib/contracts/overview';
 import * as traces from '../../src/pages/api/traces/index';
 import { captureToCsv, generateCapture } from '../../src/lib/traces/generate';
 
@@ -251,6 +253,20 @@ describe('a cohort whose build range widens keeps its record', () => {
     // WLR-2 (acknowledged, range widened since) needs attention; DLA-1 (acknowledged, unchanged) does not.
     expect(getPatternsAttention(me)).toEqual({ needsAttention: 1, new: 0, changed: 1, open: 2, waterIngressOpen: 1, href: '/patterns' });
     expect(getPatternsAttention({ ...me, role: 'technician', depotIds: [] })).toBeNull();
+  });
+
+  it('GET /api/overview lists the changed WLR-2 record first for the manager, and no patterns for a technician', async () => {
+    const o = await body<OverviewResponse>(await call(overview, 'GET', '/api/overview', { token: manager.token }));
+    expect(o.patterns).toMatchObject({ open: 2, needsAttention: 1, waterIngressOpen: 1 });
+    expect(o.patterns!.lastSyncAt).not.toBeNull();
+    expect(o.patterns!.items.map((i) => [i.moduleCode, i.exposureBand, i.needsAttention, i.waterIngress])).toEqual([
+      ['WLR-2', 'high', true, true],
+      ['DLA-1', 'low', false, false],
+    ]);
+    expect(o.patterns!.items[0]!.changes[0]).toMatch(/^Build range widened from /);
+    const tech = await personWithToken('technician', [loaded.fleet.depots[0]!.code]);
+    const t = await body<OverviewResponse>(await call(overview, 'GET', '/api/overview', { token: tech.token }));
+    expect(t.patterns).toBeNull();
   });
 });
 

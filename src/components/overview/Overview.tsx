@@ -10,7 +10,9 @@ import { Plus } from 'lucide-react';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { STATUS_BADGE, STATUS_LABELS, POSITION_LABELS } from '@/components/labels';
 import { formatInstantDate } from '@/components/defects/format';
-import { OPEN_STATUSES, type OverviewDefect, type OverviewResponse } from '@/lib/contracts/overview';
+import { OPEN_STATUSES, type OverviewDefect, type OverviewPatterns, type OverviewResponse } from '@/lib/contracts/overview';
+import { formatBuildRange } from '@/lib/patterns/records';
+import { BAND_LABELS, PATTERN_STATUS_BADGE, PATTERN_STATUS_LABELS, VERDICT_BADGE, VERDICT_LABELS } from '@/components/patterns/labels';
 import { defectsHref } from '@/lib/overview/links';
 import { DepotRepeatChart, ModuleChart, RepeatTrendChart, STATUS_COLOURS, StatusDepotChart } from './charts';
 import { formatPct, formatPer100 } from './format';
@@ -126,6 +128,79 @@ function DefectShortList({ rows, caption, empty }: { rows: OverviewDefect[]; cap
   );
 }
 
+function PatternsSection({ p, manages }: { p: OverviewPatterns; manages: boolean }) {
+  const analysed = p.lastSyncAt ? `last analysed ${formatInstantDate(p.lastSyncAt, 'UTC')}` : 'not analysed yet';
+  const sub =
+    p.open === 0
+      ? `Cohorts of vehicles whose doors fail above the fleet rate · ${analysed}`
+      : `${fmt(p.open)} open · ${fmt(p.needsAttention)} need${p.needsAttention === 1 ? 's' : ''} a look · ${fmt(p.waterIngressOpen)} water ingress · ${analysed}`;
+  return (
+    <Section
+      title="Patterns to act on"
+      sub={sub}
+      actions={
+        <a className="link" href="/patterns">
+          All patterns
+        </a>
+      }
+    >
+      {p.items.length === 0 ? (
+        <p className="text-sm text-ink-600">
+          {p.lastSyncAt === null
+            ? manages
+              ? 'Open Patterns to run the first analysis of the fleet.'
+              : 'Pattern records appear here once a fleet manager has opened Patterns.'
+            : 'No open pattern: no cohort fails significantly above the fleet rate, or every one has been dealt with.'}
+        </p>
+      ) : (
+        <div className="table-wrap">
+          <table className="data-table">
+            <caption className="sr-only">Open patterns, those needing a look first</caption>
+            <thead>
+              <tr>
+                <th>Pattern</th>
+                <th>Built</th>
+                <th className="text-right">Rate ratio</th>
+                <th className="text-right">Failures</th>
+                <th>Verdict</th>
+                <th>Status</th>
+              </tr>
+            </thead>
+            <tbody>
+              {p.items.map((r) => {
+                const verdict = r.waterIngress ? 'water_ingress' : r.significant ? 'significant_dry' : 'not_significant';
+                return (
+                  <tr key={r.id}>
+                    <td>
+                      <a className="link" href={`/patterns/${r.id}`}>
+                        {r.moduleCode}
+                      </a>{' '}
+                      <span className="text-ink-500">{BAND_LABELS[r.exposureBand as 'low'] ?? r.exposureBand} exposure</span>
+                      {r.moduleName && <div className="text-xs text-ink-500">{r.moduleName}</div>}
+                    </td>
+                    <td className="whitespace-nowrap">{formatBuildRange(r)}</td>
+                    <td className="text-right font-semibold tabular-nums">{r.rateRatio === null ? '–' : `${r.rateRatio.toFixed(1)}×`}</td>
+                    <td className="text-right whitespace-nowrap tabular-nums">
+                      {fmt(r.failures)} <span className="text-ink-500">vs {r.expected.toFixed(1)}</span>
+                    </td>
+                    <td>
+                      <span className={VERDICT_BADGE[verdict]}>{VERDICT_LABELS[verdict]}</span>
+                    </td>
+                    <td>
+                      <span className={PATTERN_STATUS_BADGE[r.status as 'new'] ?? 'badge-neutral'}>{PATTERN_STATUS_LABELS[r.status as 'new'] ?? r.status}</span>
+                      {r.changes.length > 0 && <div className="mt-0.5 text-xs text-amber-800">Changed: {r.changes.join('; ')}</div>}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </Section>
+  );
+}
+
 function CountLink({ n, href, label }: { n: number; href: string; label: string }) {
   return (
     <a className="link tabular-nums" href={href} aria-label={label}>
@@ -195,6 +270,8 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
           testId="kpi-repeat"
         />
       </section>
+
+      {o.patterns && <PatternsSection p={o.patterns} manages={manages} />}
 
       <div className="grid gap-5 lg:grid-cols-3">
         <Section title="Open defects by depot and status" sub="Click a segment to list those defects" className="lg:col-span-2">

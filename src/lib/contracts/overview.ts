@@ -46,6 +46,38 @@ export type OverviewDefect = {
   repeatOfRef: string | null;
 };
 
+/** One pattern record on the Overview (the fleet-wide records a person may see, acted on in Patterns). */
+export type OverviewPattern = {
+  id: number;
+  moduleCode: string;
+  moduleName: string | null;
+  exposureBand: string;
+  buildFrom: string;
+  buildTo: string;
+  failures: number;
+  expected: number;
+  rateRatio: number | null;
+  waterIngress: boolean;
+  significant: boolean;
+  status: string;
+  /** The changes since a person last acted on it, in words (empty when none). */
+  changes: string[];
+  /** New and significant, or changed since someone last acted on it. */
+  needsAttention: boolean;
+};
+
+/** Patterns for roles that read them: counts and the records that most need a look. */
+export type OverviewPatterns = {
+  /** Records that are not resolved or dismissed. */
+  open: number;
+  needsAttention: number;
+  waterIngressOpen: number;
+  /** When the records were last brought up to date with the report (null: never). */
+  lastSyncAt: string | null;
+  /** Up to OVERVIEW_PATTERN_ROWS open records, those needing attention first, then water ingress, then rate ratio. */
+  items: OverviewPattern[];
+};
+
 /** Body of GET /api/overview. */
 export type OverviewResponse = {
   asOf: string;
@@ -69,4 +101,6 @@ export type OverviewResponse = {
   oldest: OverviewDefect[];
   /** The caller's own open defects (assigned to or reported by them); null for roles that do not work defects. */
   mine: { total: number; items: OverviewDefect[] } | null;
+  /** Pattern records for roles that read patterns (managers, admins, supervisors); null for the others. */
+  patterns: OverviewPatterns | null;
 };
