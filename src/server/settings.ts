@@ -1,21 +1,26 @@
 /**
  * Settings an admin changes (src/lib/contracts/settings.ts). Changing the repeat-repair window recomputes every
  * vehicle's repeat links in the same transaction as the change and its audit rows, and reports how many
- * defects changed; a dry run does the same work inside a transaction that is rolled back.
+ * defects changed; a dry run does the same work inside a transaction that is rolled back. The labour rate
+ * applies to costs worked out from then on (a defect's cost is recomputed when its parts or labour are saved).
  */
-import { sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, settings } from '@/db/schema';
 import type { Settings, SettingsChangeResult, SettingsPatch } from '@/lib/contracts/settings';
 import { writeAudit, type Actor } from './audit';
 import { refreshRepeats, repeatWindowDays } from './repeats';
+import { labourRateMinorPerHour } from './defect-record';
 
 /** Key of the repeat window in the settings table (read by src/server/repeats.ts). */
 export const REPEAT_WINDOW_KEY = 'repeat_window_days';
+/** Key of the hourly labour rate (read by src/server/defect-record.ts). */
+export const LABOUR_RATE_KEY = 'labour_rate_minor_per_hour';
 
 /** The settings in force (defaults where none is stored). */
 export function getSettings(): Settings {
-  return { repeatWindowDays: repeatWindowDays(getDb()) };
+  const db = getDb();
+  return { repeatWindowDays: repeatWindowDays(db), labourRateMinorPerHour: labourRateMinorPerHour(db) };
 }
 
 /** Thrown inside a dry run's transaction to roll it back, carrying the result out. */
@@ -32,12 +37,19 @@ export function updateSettings(patch: SettingsPatch, actor: Actor, opts: { dryRu
   try {
     return db.transaction((tx) => {
       const before = repeatWindowDays(tx);
-      const next = patch.repeatWindowDays;
+      const next = patch.repeatWindowDays ?? before;
+      const rateBefore = labourRateMinorPerHour(tx);
+      const rate = patch.labourRateMinorPerHour === undefined ? rateBefore : patch.labourRateMinorPerHour;
+      if (rate !== rateBefore) {
+        if (rate === null) tx.delete(settings).where(eq(settings.key, LABOUR_RATE_KEY)).run();
+        else tx.insert(settings).values({ key: LABOUR_RATE_KEY, value: String(rate) }).onConflictDoUpdate({ target: settings.key, set: { value: String(rate) } }).run();
+        writeAudit(tx, actor, { entity: 'settings', entityId: LABOUR_RATE_KEY, action: 'update', field: LABOUR_RATE_KEY, oldValue: rateBefore === null ? null : String(rateBefore), newValue: rate === null ? null : String(rate) });
+      }
       const links = () => new Map(tx.select({ id: defects.id, repeatOfId: defects.repeatOfId }).from(defects).all().map((r) => [r.id, r.repeatOfId]));
       const old = links();
       const repeatsBefore = [...old.values()].filter((v) => v !== null).length;
       let result: SettingsChangeResult = {
-        settings: { repeatWindowDays: before },
+        settings: { repeatWindowDays: before, labourRateMinorPerHour: rate },
         dryRun,
         recompute: { defectsChanged: 0, repeatsBefore, repeatsAfter: repeatsBefore, vehiclesChecked: 0 },
       };
@@ -54,7 +66,7 @@ export function updateSettings(patch: SettingsPatch, actor: Actor, opts: { dryRu
         let changed = 0;
         for (const [id, was] of old) if ((now.get(id) ?? null) !== was) changed++;
         const repeatsAfter = [...now.values()].filter((v) => v !== null).length;
-        result = { settings: { repeatWindowDays: next }, dryRun, recompute: { defectsChanged: changed, repeatsBefore, repeatsAfter, vehiclesChecked: vehicleIds.length } };
+        result = { settings: { repeatWindowDays: next, labourRateMinorPerHour: rate }, dryRun, recompute: { defectsChanged: changed, repeatsBefore, repeatsAfter, vehiclesChecked: vehicleIds.length } };
         writeAudit(tx, actor, { entity: 'settings', entityId: REPEAT_WINDOW_KEY, action: 'update', field: REPEAT_WINDOW_KEY, oldValue: String(before), newValue: String(next) });
         writeAudit(tx, actor, {
           entity: 'settings',

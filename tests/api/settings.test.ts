@@ -38,11 +38,11 @@ describe('GET /api/settings', () => {
   it('answers 401 without credentials', async () => {
     expect((await call(settingsRoute, 'GET', '/api/settings')).status).toBe(401);
   });
-  it('gives everyone the repeat window (default 90) and only admins the change history', async () => {
+  it('gives everyone the repeat window (default 90) and the labour rate (none set), and only admins the change history', async () => {
     const v = await body(await call(settingsRoute, 'GET', '/api/settings', { token: viewer }));
-    expect(v).toEqual({ repeatWindowDays: 90 });
+    expect(v).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null });
     const a = await body(await call(settingsRoute, 'GET', '/api/settings', { token: admin }));
-    expect(a).toEqual({ repeatWindowDays: 90, changes: [] });
+    expect(a).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null, changes: [] });
   });
 });
 
@@ -64,6 +64,10 @@ describe('PATCH /api/settings', () => {
     [{ repeatWindowDays: '30' }, 'repeatWindowDays'],
     [{}, 'repeatWindowDays'],
     [{ repeatWindowDays: 30, currency: 'EUR' }, ''],
+    [{ labourRateMinorPerHour: -1 }, 'labourRateMinorPerHour'],
+    [{ labourRateMinorPerHour: 45.5 }, 'labourRateMinorPerHour'],
+    [{ labourRateMinorPerHour: '4800' }, 'labourRateMinorPerHour'],
+    [{ labourRateMinorPerHour: 10_000_001 }, 'labourRateMinorPerHour'],
   ])('answers 400 for %j, writing nothing', async (json, path) => {
     const r = await patch(admin, json);
     expect(r.status).toBe(400);
@@ -83,7 +87,7 @@ describe('PATCH /api/settings', () => {
     const r = await patch(admin, { repeatWindowDays: 60 }, '?dryRun=1');
     expect(r.status).toBe(200);
     expect(await body(r)).toEqual({
-      settings: { repeatWindowDays: 60 },
+      settings: { repeatWindowDays: 60, labourRateMinorPerHour: null },
       dryRun: true,
       recompute: { defectsChanged: 1, repeatsBefore: 3, repeatsAfter: 2, vehiclesChecked: 4 },
     });
@@ -96,7 +100,7 @@ describe('PATCH /api/settings', () => {
     const r = await patch(admin, { repeat_window_days: 45 });
     expect(r.status).toBe(200);
     expect(await body(r)).toEqual({
-      settings: { repeatWindowDays: 45 },
+      settings: { repeatWindowDays: 45, labourRateMinorPerHour: null },
       dryRun: false,
       recompute: { defectsChanged: 2, repeatsBefore: 3, repeatsAfter: 1, vehiclesChecked: 4 },
     });
@@ -129,5 +133,23 @@ describe('PATCH /api/settings', () => {
     expect(updates).toEqual(['30>90', '45>30', '90>45']);
     const still = getDb().select().from(defects).where(and(eq(defects.ref, 'D6'), isNotNull(defects.repeatOfId))).all();
     expect(still).toHaveLength(1);
+  });
+
+  it('sets, changes and clears the labour rate with an audit row each time, leaving the repeat links alone', async () => {
+    const lastId = Math.max(0, ...settingsAudit().map((a) => a.id));
+    const set = await body(await patch(admin, { labourRateMinorPerHour: 4800 }));
+    expect(set).toEqual({ settings: { repeatWindowDays: 90, labourRateMinorPerHour: 4800 }, dryRun: false, recompute: { defectsChanged: 0, repeatsBefore: 3, repeatsAfter: 3, vehiclesChecked: 0 } });
+    expect((await body(await call(settingsRoute, 'GET', '/api/settings', { token: viewer }))).labourRateMinorPerHour).toBe(4800);
+    await patch(admin, { labour_rate_minor_per_hour: 5250 });
+    const cleared = await body(await patch(admin, { labourRateMinorPerHour: null }));
+    expect(cleared.settings.labourRateMinorPerHour).toBeNull();
+    expect(getDb().select().from(settings).all().map((r) => r.key)).toEqual(['repeat_window_days']);
+    const added = settingsAudit().filter((a) => a.id > lastId).sort((a, b) => a.id - b.id);
+    expect(added.map((a) => [a.field, a.oldValue, a.newValue])).toEqual([
+      ['labour_rate_minor_per_hour', null, '4800'],
+      ['labour_rate_minor_per_hour', '4800', '5250'],
+      ['labour_rate_minor_per_hour', '5250', null],
+    ]);
+    expect(repeatPairs()).toEqual(['D2<D1', 'D3<D2', 'D6<D5']);
   });
 });

@@ -1,15 +1,17 @@
 /**
- * The Settings island (admins): the repeat-repair window. A preview says how many defects the new window would
- * change before anything is written; saving recomputes every vehicle's repeat links in one transaction.
+ * The Settings island (admins): the repeat-repair window (a preview says how many defects the new window would
+ * change before anything is written; saving recomputes every vehicle's repeat links in one transaction) and the
+ * hourly labour rate used for repair costs.
  */
 import { useEffect, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { ApiError } from '@/lib/client/api-client';
 import { FormField, fieldAria } from '@/components/ui/FormField';
-import { formatInstant } from '@/components/defects/format';
+import { formatInstant, formatMoneyMinor } from '@/components/defects/format';
 import { REPEAT_WINDOW_MAX_DAYS, REPEAT_WINDOW_MIN_DAYS, type SettingsChangeResult } from '@/lib/contracts/settings';
 import { useChangeSettings, useSettings } from './queries';
+import { checkRate } from './rate';
 
 const fmt = (n: number) => n.toLocaleString('en-GB');
 
@@ -19,6 +21,81 @@ function checkDays(text: string): { days: number } | { error: string } {
   const days = Number(text.trim());
   if (days < REPEAT_WINDOW_MIN_DAYS || days > REPEAT_WINDOW_MAX_DAYS) return { error: `Between ${REPEAT_WINDOW_MIN_DAYS} and ${fmt(REPEAT_WINDOW_MAX_DAYS)} days.` };
   return { days };
+}
+
+const rateText = (minor: number | null | undefined) => (minor === null || minor === undefined ? '' : (minor / 100).toFixed(2));
+
+function LabourRateForm({ current, loading }: { current: number | null | undefined; loading: boolean }) {
+  const change = useChangeSettings();
+  const [text, setText] = useState<string | null>(null);
+  const [fieldError, setFieldError] = useState<string | undefined>();
+  const [saved, setSaved] = useState<number | null | undefined>(undefined);
+  const value = text ?? rateText(current);
+  const parsed = checkRate(value);
+  const unchanged = 'minor' in parsed && parsed.minor === (current ?? null);
+  return (
+    <section className="card card-pad space-y-4" aria-labelledby="labour-rate-h">
+      <div>
+        <h2 id="labour-rate-h">Labour rate</h2>
+        <p className="mt-1 max-w-prose text-sm text-ink-600">
+          A defect's cost is its parts plus its labour minutes at this hourly rate. The rate applies whenever a defect's parts or labour are saved from now on;
+          costs already recorded stay as they are. Leave it empty to count parts only.
+        </p>
+      </div>
+      <form
+        className="flex flex-wrap items-start gap-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const c = checkRate(value);
+          if ('error' in c) {
+            setFieldError(c.error);
+            return;
+          }
+          setFieldError(undefined);
+          change.mutate(
+            { patch: { labourRateMinorPerHour: c.minor }, dryRun: false },
+            {
+              onSuccess: (r) => {
+                setSaved(r.settings.labourRateMinorPerHour);
+                setText(null);
+              },
+              onError: (e) => setFieldError(e instanceof ApiError && e.issues[0] ? e.issues[0].message : e.message),
+            },
+          );
+        }}
+      >
+        <FormField
+          id="labour-rate"
+          label="Rate per hour"
+          error={fieldError}
+          hint={current === undefined ? undefined : current === null ? 'In force: none (parts only)' : `In force: ${formatMoneyMinor(current)} an hour`}
+          className="w-56"
+        >
+          <input
+            {...fieldAria('labour-rate', fieldError, current !== undefined)}
+            className="input"
+            inputMode="decimal"
+            value={value}
+            onChange={(e) => {
+              setText(e.target.value);
+              setSaved(undefined);
+            }}
+            disabled={loading}
+          />
+        </FormField>
+        <div className="sm:mt-6">
+          <button type="submit" className="btn-primary" disabled={change.isPending || loading || unchanged}>
+            {change.isPending ? 'Saving…' : 'Save the rate'}
+          </button>
+        </div>
+      </form>
+      {saved !== undefined && (
+        <p role="status" className="rounded-md border border-moss-600/40 bg-moss-50 px-4 py-3 text-sm text-moss-700">
+          <strong>Saved.</strong> {saved === null ? 'No labour rate: costs count parts only.' : `Labour is costed at ${formatMoneyMinor(saved)} an hour.`}
+        </p>
+      )}
+    </section>
+  );
 }
 
 function Outcome({ r }: { r: SettingsChangeResult }) {
@@ -129,6 +206,8 @@ function SettingsForm() {
         )}
       </section>
 
+      <LabourRateForm current={settings.data?.labourRateMinorPerHour} loading={settings.isPending} />
+
       <section className="card" aria-labelledby="settings-history-h">
         <div className="border-b border-ink-200 px-4 py-3">
           <h2 id="settings-history-h">Recent changes</h2>
@@ -151,7 +230,9 @@ function SettingsForm() {
                   <td>
                     {c.action === 'recompute_repeats'
                       ? `Repeat links recomputed: ${c.newValue ?? ''} (was ${c.oldValue ?? '–'})`
-                      : `Repeat window ${c.oldValue ?? '–'} → ${c.newValue ?? '–'} days`}
+                      : c.field === 'labour_rate_minor_per_hour'
+                        ? `Labour rate ${c.oldValue === null ? 'none' : formatMoneyMinor(Number(c.oldValue))} → ${c.newValue === null ? 'none' : formatMoneyMinor(Number(c.newValue))} an hour`
+                        : `Repeat window ${c.oldValue ?? '–'} → ${c.newValue ?? '–'} days`}
                   </td>
                 </tr>
               ))}

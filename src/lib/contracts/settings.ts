@@ -1,6 +1,7 @@
 /**
  * Settings an admin can change (GET/PATCH /api/settings). Only settings that change what the product does:
- * today the repeat-repair window. Edit together with src/server/settings.ts when adding one.
+ * the repeat-repair window and the hourly labour rate of repair costs. Edit together with src/server/settings.ts
+ * when adding one.
  */
 import { z } from 'zod';
 
@@ -9,14 +10,31 @@ export const REPEAT_WINDOW_MIN_DAYS = 1;
 /** Upper bound of the repeat-repair window, in days. */
 export const REPEAT_WINDOW_MAX_DAYS = 3650;
 
-/** Body of PATCH /api/settings: the fields to change (unknown keys are refused). */
-export const SettingsPatchSchema = z.strictObject({
-  repeatWindowDays: z
-    .number('repeatWindowDays must be a number of days')
-    .int('repeatWindowDays must be a whole number of days')
-    .min(REPEAT_WINDOW_MIN_DAYS, `repeatWindowDays must be at least ${REPEAT_WINDOW_MIN_DAYS}`)
-    .max(REPEAT_WINDOW_MAX_DAYS, `repeatWindowDays must be at most ${REPEAT_WINDOW_MAX_DAYS}`),
-});
+/** Upper bound of the labour rate, in minor units per hour (100,000.00 an hour). */
+export const LABOUR_RATE_MAX_MINOR = 10_000_000;
+
+/** Body of PATCH /api/settings: the fields to change, at least one (unknown keys are refused). */
+export const SettingsPatchSchema = z
+  .strictObject({
+    repeatWindowDays: z
+      .number('repeatWindowDays must be a number of days')
+      .int('repeatWindowDays must be a whole number of days')
+      .min(REPEAT_WINDOW_MIN_DAYS, `repeatWindowDays must be at least ${REPEAT_WINDOW_MIN_DAYS}`)
+      .max(REPEAT_WINDOW_MAX_DAYS, `repeatWindowDays must be at most ${REPEAT_WINDOW_MAX_DAYS}`)
+      .optional(),
+    /** Minor currency units per hour; null removes the rate (labour then adds nothing to a cost). */
+    labourRateMinorPerHour: z
+      .number('labourRateMinorPerHour must be a number of minor currency units (cents) per hour')
+      .int('labourRateMinorPerHour must be a whole number of minor units (cents)')
+      .min(0, 'labourRateMinorPerHour cannot be negative')
+      .max(LABOUR_RATE_MAX_MINOR, `labourRateMinorPerHour must be at most ${LABOUR_RATE_MAX_MINOR}`)
+      .nullable()
+      .optional(),
+  })
+  .refine((p) => p.repeatWindowDays !== undefined || p.labourRateMinorPerHour !== undefined, {
+    message: 'Send repeatWindowDays or labourRateMinorPerHour.',
+    path: ['repeatWindowDays'],
+  });
 /** A validated settings change. */
 export type SettingsPatch = z.infer<typeof SettingsPatchSchema>;
 
@@ -24,7 +42,7 @@ export type SettingsPatch = z.infer<typeof SettingsPatchSchema>;
 export const SettingsPatchQuery = z.object({ dryRun: z.enum(['1', '0', 'true', 'false'], 'dryRun must be 1 or 0').optional() });
 
 /** The settings in force. */
-export type Settings = { repeatWindowDays: number };
+export type Settings = { repeatWindowDays: number; labourRateMinorPerHour: number | null };
 
 /** Answer of PATCH /api/settings: the settings and what the repeat recompute changed. */
 export type SettingsChangeResult = {
