@@ -132,6 +132,16 @@ describe('Vehicles as fleet manager', () => {
     expect(await filters.getByLabel('Parking', { exact: true }).inputValue()).toBe('indoor');
     expect(new Set(await depotCodes(page))).toEqual(new Set(['SMP']));
 
+    // Back steps to the previous filter (depot only), Forward returns to depot and parking.
+    await page.goBack();
+    await expect.poll(() => pathOf(page)).not.toContain('parking=');
+    expect(pathOf(page)).toContain('depot=SMP');
+    await page.getByText(`${fmt(smp)} vehicles match these filters`).waitFor();
+    expect(await filters.getByLabel('Parking', { exact: true }).inputValue()).toBe('');
+    await page.goForward();
+    await expect.poll(() => pathOf(page)).toContain('parking=indoor');
+    await page.getByText(`${fmt(smpIndoor)} ${smpIndoor === 1 ? 'vehicle matches' : 'vehicles match'} these filters`).waitFor();
+
     // Search for one of the listed vehicles by its fleet number.
     await filters.getByRole('button', { name: 'Clear filters' }).click();
     await expect.poll(() => pathOf(page)).toBe('/vehicles');

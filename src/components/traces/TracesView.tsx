@@ -58,7 +58,7 @@ function TraceList({ initialParams, canUpload }: Props) {
   const filtered = !!(state.verdict || state.depot);
   const lastPage = list.data ? Math.max(1, Math.ceil(total / pageSize)) : 1;
   useEffect(() => {
-    if (list.data && !list.isPlaceholderData && list.data.items.length === 0 && total > 0 && page > lastPage) update({ page: String(lastPage) }, false);
+    if (list.data && !list.isPlaceholderData && list.data.items.length === 0 && total > 0 && page > lastPage) update({ page: String(lastPage) }, false, { replace: true });
   }, [list.data, list.isPlaceholderData, total, page, lastPage, update]);
   const onPage = useCallback((p: number) => update({ page: String(p) }), [update]);
 

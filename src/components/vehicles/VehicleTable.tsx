@@ -47,7 +47,7 @@ function VehicleList({ initialParams }: Props) {
   const lastPage = list.data ? Math.max(1, Math.ceil(list.data.total / pageSize)) : 1;
   useEffect(() => {
     if (list.data && !list.isPlaceholderData && list.data.items.length === 0 && list.data.total > 0 && page > lastPage)
-      update({ page: String(lastPage) }, false);
+      update({ page: String(lastPage) }, false, { replace: true });
   }, [list.data, list.isPlaceholderData, page, lastPage, update]);
 
   const onSearch = useCallback((q: string) => update({ q }), [update]);
