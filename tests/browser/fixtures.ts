@@ -26,7 +26,7 @@ export function baseUrl(): string {
 }
 
 /** The database the global set-up seeded (the server runs on it). */
-export const E2E_DB_PATH = path.resolve(import.meta.dirname, '../.tmp/browser/e2e.db');
+export const E2E_DB_PATH = inject('e2eDbPath');
 
 export type Viewport = { width: number; height: number };
 

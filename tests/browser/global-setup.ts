@@ -19,9 +19,9 @@ function freePort(): Promise<number> {
 }
 
 export default async function setup(project: TestProject) {
-  const tmp = path.join(root, 'tests/.tmp/browser');
-  fs.rmSync(tmp, { recursive: true, force: true });
-  fs.mkdirSync(tmp, { recursive: true });
+  // A folder of this run's own: two runs side by side (or an API run) never delete each other's database.
+  fs.mkdirSync(path.join(root, 'tests/.tmp'), { recursive: true });
+  const tmp = fs.mkdtempSync(path.join(root, 'tests/.tmp/browser-'));
   const env = { ...process.env, DATABASE_URL: path.join(tmp, 'e2e.db'), UPLOAD_DIR: path.join(tmp, 'uploads'), AUTH_SECRET: 'e2e-secret-e2e-secret-e2e-secret-0', HOST: '127.0.0.1' };
   // Build (the start script's logic decides whether dist/ is stale) and seed, without serving.
   const prep = spawnSync(process.execPath, ['--import', 'tsx', path.join(root, 'scripts/start.ts'), '--prepare-only'], { cwd: root, env, stdio: 'inherit' });
@@ -43,13 +43,21 @@ export default async function setup(project: TestProject) {
     if (i === 99) throw new Error(`server did not start:\n${log}`);
   }
   project.provide('baseUrl', base);
-  return () => {
-    server?.kill('SIGTERM');
+  project.provide('e2eDbPath', path.join(tmp, 'e2e.db'));
+  return async () => {
+    if (server && server.exitCode === null) {
+      const exited = new Promise((r) => server!.once('exit', r));
+      server.kill('SIGTERM');
+      await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
+    }
+    fs.rmSync(tmp, { recursive: true, force: true });
   };
 }
 
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
+    /** The SQLite file the server of this run uses. */
+    e2eDbPath: string;
   }
 }

@@ -1,9 +1,9 @@
 // Per test file: a fresh copy of the migrated template database, and a failing console.error.
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, vi } from 'vitest';
+import { afterAll, beforeAll, inject, vi } from 'vitest';
 
-const dir = path.resolve('tests/.tmp');
+const dir = inject('apiTmpDir');
 const file = path.join(dir, `api-${process.env.VITEST_POOL_ID ?? '0'}-${process.pid}-${Math.random().toString(36).slice(2)}.db`);
 fs.copyFileSync(path.join(dir, 'template.db'), file);
 process.env.DATABASE_URL = file;
