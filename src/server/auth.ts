@@ -4,7 +4,7 @@
  * lies inside their depots (outside → 404 so that its existence is not disclosed).
  */
 import type { APIContext, AstroGlobal } from 'astro';
-import { can, type Permission, type Role } from '@/lib/auth/permissions';
+import { can, type Permission } from '@/lib/auth/permissions';
 import { forbidden, notFound, unauthenticated } from './http';
 import type { SessionUser } from '@/lib/auth/session-user';
 

@@ -7,7 +7,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
 import { attachments, defectParts, defects, defectTransitions, depots, modules, settings, users, vehicles } from '@/db/schema';
 import { uploadDir } from '@/env';
@@ -15,19 +14,19 @@ import type { DefectCreate, DefectPatch, DefectRecord, Part, TimelineEntry, Tran
 import { describeDtc, parseDtc, parseDtcList } from '@/lib/dtc/dtc';
 import { parseInstant } from '@/lib/dates/dates';
 import { cellsFromObject, validateRecord } from '@/lib/imports/rows';
-import { canEditRecord, OPEN_STATUS_VALUES, requiresSafetyVerification } from '@/lib/defects/transitions';
+import { canEditRecord, requiresSafetyVerification } from '@/lib/defects/transitions';
 import { partsTotalMinor, repairCostMinor } from '@/lib/defects/cost';
 import { parseVin } from '@/lib/vin/vin';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
 import { conflict, forbidden, HttpError, invalid, notFound } from './http';
 import { iso } from './list-helpers';
+import { defectJson, defectSelect, earlier } from './defect-json';
 import { applyDefectRow, writeDefectCodes } from './imports';
 import { refreshRepeats, repeatWindowDays } from './repeats';
 import { listAudit, writeAudit, type Actor } from './audit';
 import { listPhotos } from './photos';
 import { affectsRepeats, applyTransition, loadForWrite, patchLifecycle, StaleVersionError, writeChange, type DefectDb, type Tx } from './defect-workflow';
 
-const earlier = alias(defects, 'earlier');
 const DAY_MS = 86_400_000;
 
 /** Words for system actors on the timeline. */
@@ -35,20 +34,7 @@ const ACTOR_WORDS: Record<string, string> = { seed: 'Demo data', import: 'Import
 
 function loadRecordRow(id: number) {
   return getDb()
-    .select({
-      d: defects,
-      vin: vehicles.vin,
-      fleetNumber: vehicles.fleetNumber,
-      registration: vehicles.registration,
-      make: vehicles.make,
-      model: vehicles.model,
-      depotCode: depots.code,
-      moduleCode: modules.code,
-      moduleName: modules.name,
-      moduleFunction: modules.function,
-      repeatOfRef: earlier.ref,
-      repeatOfClosedAt: earlier.closedAt,
-    })
+    .select({ ...defectSelect, repeatOfClosedAt: earlier.closedAt })
     .from(defects)
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
     .innerJoin(depots, eq(depots.id, defects.depotId))
@@ -122,37 +108,7 @@ export function getDefect(user: SessionUser, id: number): DefectRecord {
     .all()
     .map((x) => ({ ...x, reportedAt: iso(x.reportedAt)! }));
   const record: DefectRecord = {
-    id: d.id,
-    ref: d.ref,
-    vin: r.vin,
-    vehicleId: d.vehicleId,
-    fleetNumber: r.fleetNumber,
-    registration: r.registration,
-    make: r.make,
-    model: r.model,
-    depotCode: r.depotCode,
-    moduleCode: r.moduleCode,
-    moduleName: r.moduleName,
-    moduleFunction: r.moduleFunction,
-    position: d.position,
-    status: d.status,
-    open: OPEN_STATUS_VALUES.includes(d.status),
-    reportedAt: iso(d.reportedAt)!,
-    symptom: d.symptom,
-    dtcs: d.dtcs ? d.dtcs.split(' ') : [],
-    moisture: d.moisture,
-    rootCause: d.rootCause,
-    action: d.action,
-    odometerKm: d.odometerKm,
-    labourMinutes: d.labourMinutes,
-    costMinor: d.costMinor,
-    closedAt: iso(d.closedAt),
-    repeat: d.repeatOfId !== null,
-    repeatOfId: d.repeatOfId,
-    repeatOfRef: r.repeatOfRef,
-    version: d.version,
-    createdAt: iso(d.createdAt),
-    updatedAt: iso(d.updatedAt),
+    ...defectJson(r),
     codes,
     membraneCondition: d.membraneCondition,
     sealCondition: d.sealCondition,

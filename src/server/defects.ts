@@ -3,83 +3,18 @@
  * version check), the lifecycle and delete are in defect-record.ts and re-exported here.
  */
 import { and, eq, gte, inArray, lt, lte, or, sql, type SQL } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
 import type { DefectListQuery, ListResponse } from '@/lib/contracts/lists';
 import { parseInstant } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { invalid } from './http';
-import { depotScope, iso, likePattern, listParam, orderBy, paging } from './list-helpers';
+import { depotScope, likePattern, listParam, orderBy, paging } from './list-helpers';
 
 const OPEN = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'];
-const earlier = alias(defects, 'earlier');
+import { defectJson, defectSelect, earlier, type DefectJson } from './defect-json';
 
-const defectSelect = {
-  d: defects,
-  vin: vehicles.vin,
-  fleetNumber: vehicles.fleetNumber,
-  registration: vehicles.registration,
-  make: vehicles.make,
-  model: vehicles.model,
-  depotCode: depots.code,
-  moduleCode: modules.code,
-  moduleName: modules.name,
-  moduleFunction: modules.function,
-  repeatOfRef: earlier.ref,
-};
-type DefectSel = {
-  d: typeof defects.$inferSelect;
-  vin: string;
-  fleetNumber: string | null;
-  registration: string | null;
-  make: string | null;
-  model: string | null;
-  depotCode: string;
-  moduleCode: string;
-  moduleName: string;
-  moduleFunction: string;
-  repeatOfRef: string | null;
-};
-
-/** JSON of a defect in lists. */
-export function defectJson(r: DefectSel) {
-  const d = r.d;
-  return {
-    id: d.id,
-    ref: d.ref,
-    vin: r.vin,
-    vehicleId: d.vehicleId,
-    fleetNumber: r.fleetNumber,
-    registration: r.registration,
-    make: r.make,
-    model: r.model,
-    depotCode: r.depotCode,
-    moduleCode: r.moduleCode,
-    moduleName: r.moduleName,
-    moduleFunction: r.moduleFunction,
-    position: d.position,
-    status: d.status,
-    open: OPEN.includes(d.status),
-    reportedAt: iso(d.reportedAt)!,
-    symptom: d.symptom,
-    dtcs: d.dtcs ? d.dtcs.split(' ') : [],
-    moisture: d.moisture,
-    rootCause: d.rootCause,
-    action: d.action,
-    odometerKm: d.odometerKm,
-    labourMinutes: d.labourMinutes,
-    costMinor: d.costMinor,
-    closedAt: iso(d.closedAt),
-    repeat: d.repeatOfId !== null,
-    repeatOfId: d.repeatOfId,
-    repeatOfRef: r.repeatOfRef,
-    version: d.version,
-    createdAt: iso(d.createdAt),
-    updatedAt: iso(d.updatedAt),
-  };
-}
-export type DefectJson = ReturnType<typeof defectJson>;
+export { defectJson, type DefectJson };
 
 const DEFECT_SORT = {
   reportedAt: defects.reportedAt,
