@@ -239,7 +239,7 @@ function SettingsForm() {
               {settings.data && (settings.data.changes ?? []).length === 0 && (
                 <tr>
                   <td colSpan={3} className="text-ink-500">
-                    No changes yet: the defaults are in force.
+                    No changes made here yet.
                   </td>
                 </tr>
               )}
