@@ -196,6 +196,30 @@ describe('computePatternsReport input checks', () => {
     expect(r.counts.cohortsTested).toBe(0);
   });
 
+  it('one vehicle failing again and again in a thinly built month is not a cohort (windows of at least minWindowVehicles)', () => {
+    // 60 vehicles in the high band, 10 per build month 2019-01..2019-06, except 2019-07 with a single vehicle
+    // that fails 4 times; 6 failures spread over the others. Without a floor the scan takes the one-vehicle month.
+    const vehicles: PatternsVehicle[] = [];
+    const months = ['2019-01', '2019-02', '2019-03', '2019-04', '2019-05', '2019-06'];
+    for (const m of months) for (let k = 0; k < 10; k++) vehicles.push({ id: vehicles.length + 1, vin: `V${vehicles.length + 1}`, buildMonth: m, inServiceDate: '2020-01-01', retiredDate: null, depotId: 1, parking: 'outdoor', washesPerMonth: 8 });
+    vehicles.push({ id: 61, vin: 'V61', buildMonth: '2019-07', inServiceDate: '2020-01-01', retiredDate: null, depotId: 1, parking: 'outdoor', washesPerMonth: 8 });
+    const failures: PatternsFailure[] = [];
+    for (const [i, v] of [3, 14, 25, 36, 47, 58].entries()) failures.push({ id: i + 1, vehicleId: v, moduleId: 1, reportedAt: '2021-06-01', moisture: 'none', rootCause: 'mechanical' });
+    for (let k = 0; k < 4; k++) failures.push({ id: 10 + k, vehicleId: 61, moduleId: 1, reportedAt: `202${1 + Math.floor(k / 2)}-0${3 + 4 * (k % 2)}-01`, moisture: 'none', rootCause: 'mechanical' });
+    const input: PatternsInput = {
+      vehicles,
+      depots: [{ id: 1, code: 'HBR', coastal: true, rainDaysPerYear: 175, meanRhPct: 83, washBay: true }],
+      modules: [{ id: 1, code: 'WLR-2', function: 'window_lifter' }],
+      failures,
+    };
+    const floor1 = computePatternsReport(input, { asOf: '2024-01-01', replicates: 199, minWindowVehicles: 1 });
+    expect(floor1.cohorts[0]).toMatchObject({ buildFrom: '2019-07', buildTo: '2019-07', vehicles: 1, failures: 4 });
+    const r = computePatternsReport(input, { asOf: '2024-01-01', replicates: 199 });
+    expect(r.method.minWindowVehicles).toBe(5);
+    expect(r.cohorts[0]!.vehicles).toBeGreaterThanOrEqual(5);
+    expect(r.cohorts.filter((c) => c.significant)).toEqual([]);
+  });
+
   it('a band smaller than minBandVehicles is not scanned', () => {
     const r = computePatternsReport(handFleet(), { asOf: '2024-01-01', replicates: 99, minBandVehicles: 23 });
     expect(r.cohorts).toEqual([]);

@@ -34,6 +34,12 @@ export { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN };
 export const DEFAULT_MIN_BAND_VEHICLES = 20;
 /** Default largest window, as a share of the band's vehicles. */
 export const DEFAULT_MAX_WINDOW_FRACTION = 0.5;
+/**
+ * Default smallest window, in vehicles. Failures of one or two vehicles that keep coming back are a repeat-repair
+ * history (flagged as such on every defect), not a build range; without a floor, the Poisson scan (which treats
+ * failures as independent) calls a single vehicle with two failures in a thinly built month a cohort.
+ */
+export const DEFAULT_MIN_WINDOW_VEHICLES = 5;
 
 /** Build-month bins of one exposure band. */
 interface BandBins {
@@ -50,7 +56,7 @@ interface BandBins {
   layout: ScanLayout | null;
 }
 
-function buildBandBins(fleet: FleetIndex, band: number, minVehicles: number, maxFraction: number): BandBins {
+function buildBandBins(fleet: FleetIndex, band: number, minVehicles: number, maxFraction: number, minWindow: number): BandBins {
   const n = fleet.vehicleIds.length;
   const members: number[] = [];
   for (let i = 0; i < n; i++) if (fleet.bandIndex[i] === band && (fleet.observedDays[i] as number) > 0) members.push(i);
@@ -76,7 +82,7 @@ function buildBandBins(fleet: FleetIndex, band: number, minVehicles: number, max
     total += fleet.vehicleYears[vi] as number;
   });
   starts.push(members.length);
-  const layout = members.length >= minVehicles && months.length >= 2 ? createScanLayout(vy, counts, maxFraction) : null;
+  const layout = members.length >= minVehicles && months.length >= 2 ? createScanLayout(vy, counts, maxFraction, minWindow) : null;
   return {
     band,
     vehicles: Int32Array.from(members),
@@ -148,6 +154,8 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
   const seed = opts.seed ?? DEFAULT_SEED;
   const minBandVehicles = opts.minBandVehicles ?? DEFAULT_MIN_BAND_VEHICLES;
   const maxWindowFraction = opts.maxWindowFraction ?? DEFAULT_MAX_WINDOW_FRACTION;
+  const minWindowVehicles = opts.minWindowVehicles ?? DEFAULT_MIN_WINDOW_VEHICLES;
+  if (!(Number.isInteger(minWindowVehicles) && minWindowVehicles >= 0)) throw new PatternsInputError('minWindowVehicles must be a whole number');
   if (!Number.isInteger(replicates) || replicates < 1) throw new PatternsInputError('replicates must be a positive integer');
   if (!Number.isInteger(seed)) throw new PatternsInputError('seed must be an integer');
   if (!(maxWindowFraction > 0 && maxWindowFraction <= 1)) throw new PatternsInputError('maxWindowFraction must be in (0, 1]');
@@ -160,7 +168,7 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
     totalVehicleYears += fleet.vehicleYears[i] as number;
     if ((fleet.observedDays[i] as number) > 0) observedVehicles++;
   }
-  const bands = EXPOSURE_BANDS.map((_, b) => buildBandBins(fleet, b, minBandVehicles, maxWindowFraction));
+  const bands = EXPOSURE_BANDS.map((_, b) => buildBandBins(fleet, b, minBandVehicles, maxWindowFraction, minWindowVehicles));
 
   const modules: ModuleBaseline[] = [];
   const cohorts: PatternCohort[] = [];
@@ -344,7 +352,7 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
       cohortsTested: cohorts.length,
       cohortsSignificant: cohorts.filter((c) => c.significant).length,
     },
-    method: { replicates, seed, fdrLevel: FDR_LEVEL, maxWindowFraction, minBandVehicles },
+    method: { replicates, seed, fdrLevel: FDR_LEVEL, maxWindowFraction, minBandVehicles, minWindowVehicles },
   };
 }
 

@@ -54,6 +54,17 @@ describe('createScanLayout', () => {
     expect(Array.from(layout.rowStart)).toEqual([0, 2, 4, 6, 7]);
   });
 
+  it('skips windows smaller than minSize (sizes only: the same windows in every replicate)', () => {
+    // Sizes 1, 2, 3, 4 (total 10), cap 100%: without a floor every run but the whole row; with minSize 3 the
+    // single bins 0 and 1 (sizes 1 and 2) drop out.
+    const all = createScanLayout([1, 2, 3, 4], [1, 2, 3, 4], 1);
+    expect(Array.from(all.starts)).toEqual([0, 0, 0, 1, 1, 1, 2, 2, 3]);
+    const floored = createScanLayout([1, 2, 3, 4], [1, 2, 3, 4], 1, 3);
+    expect(Array.from(floored.starts)).toEqual([0, 0, 1, 1, 2, 2, 3]);
+    expect(Array.from(floored.ends)).toEqual([1, 2, 2, 3, 2, 3, 3]);
+    expect(Array.from(floored.size)).toEqual([3, 6, 5, 9, 3, 7, 4]);
+  });
+
   it('skips windows without population', () => {
     const layout = createScanLayout([0, 5, 5, 5], [1, 1, 1, 1], 0.5);
     expect(Array.from(layout.starts)).toEqual([0, 1, 1, 2, 2, 3]);

@@ -29,13 +29,15 @@ export interface ScanLayout {
 }
 
 /**
- * Admissible windows: every contiguous run of bins with size ≤ maxSizeFraction × total size (inclusive, relative
- * tolerance 1e-12) and population share strictly between 0 and 1. `size` defaults to the population.
+ * Admissible windows: every contiguous run of bins with minSize ≤ size ≤ maxSizeFraction × total size (inclusive,
+ * relative tolerance 1e-12) and population share strictly between 0 and 1. `size` defaults to the population.
+ * Both bounds depend on the sizes only, never on the cases, so the Monte Carlo replicates scan the same windows.
  */
 export function createScanLayout(
   population: ArrayLike<number>,
   size: ArrayLike<number> = population,
   maxSizeFraction = 0.5,
+  minSize = 0,
 ): ScanLayout {
   const bins = population.length;
   if (size.length !== bins) throw new RangeError('population and size must have the same length');
@@ -66,7 +68,7 @@ export function createScanLayout(
       const share = totalPopulation > 0 ? windowPop / totalPopulation : 0;
       // A window with no population, or all of it, is not a proper high-rate window.
       if (share >= 1) break;
-      if (!(share > 0)) continue;
+      if (!(share > 0) || windowSize < minSize) continue;
       starts.push(s);
       ends.push(e);
       shares.push(share);

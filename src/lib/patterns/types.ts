@@ -80,6 +80,8 @@ export interface PatternsOptions {
   minBandVehicles?: number;
   /** Largest window as a share of the band's vehicles (default 0.5). */
   maxWindowFraction?: number;
+  /** Smallest window, in vehicles (default 5): a handful of vehicles is a repeat history, not a build range. */
+  minWindowVehicles?: number;
 }
 
 /** One build month of a cohort's band, for the rate chart. */
@@ -239,6 +241,7 @@ export interface PatternsReport {
     fdrLevel: number;
     maxWindowFraction: number;
     minBandVehicles: number;
+    minWindowVehicles: number;
   };
 }
 
