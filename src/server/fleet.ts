@@ -2,7 +2,7 @@
  * Depots, module catalogue and vehicles: lists (scoped to the caller's depots), records, create, change and
  * delete. Writes validate through the same row rules as the imports (src/lib/imports/rows.ts).
  */
-import { and, eq, inArray, like, or, sql, type SQL } from 'drizzle-orm';
+import { and, eq, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, userDepots, vehicles } from '@/db/schema';
 import type { ListResponse, VehicleListQuery } from '@/lib/contracts/lists';
@@ -73,7 +73,10 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
   const { page, pageSize, offset } = paging(q);
   const conds: (SQL | undefined)[] = [depotScope(user, depots.id)];
   if (q.depot) conds.push(eq(depots.code, q.depot.toUpperCase()));
-  if (q.q) conds.push(or(like(depots.code, likePattern(q.q)), like(depots.name, likePattern(q.q)), like(depots.region, likePattern(q.q))));
+  if (q.q) {
+    const p = likePattern(q.q.trim());
+    conds.push(or(sql`${depots.code} like ${p} escape '\\'`, sql`${depots.name} like ${p} escape '\\'`, sql`${depots.region} like ${p} escape '\\'`));
+  }
   const where = and(...conds);
   const total = db.select({ n: sql<number>`count(*)` }).from(depots).where(where).get()?.n ?? 0;
   const rows = db
@@ -159,7 +162,17 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
   const db = getDb();
   const { page, pageSize, offset } = paging(q);
   const conds: (SQL | undefined)[] = [];
-  if (q.q) conds.push(or(like(modules.code, likePattern(q.q)), like(modules.name, likePattern(q.q)), like(modules.supplier, likePattern(q.q)), like(modules.partNumber, likePattern(q.q))));
+  if (q.q) {
+    const p = likePattern(q.q.trim());
+    conds.push(
+      or(
+        sql`${modules.code} like ${p} escape '\\'`,
+        sql`${modules.name} like ${p} escape '\\'`,
+        sql`${modules.supplier} like ${p} escape '\\'`,
+        sql`${modules.partNumber} like ${p} escape '\\'`,
+      ),
+    );
+  }
   if (q.function) conds.push(eq(modules.function, q.function as ModuleDb['function']));
   const where = and(...conds);
   const scope =
@@ -219,13 +232,24 @@ export function deleteModule(code: string, actor: Actor): void {
 
 // ---------------------------------------------------------------- vehicles
 
-const vehicleSelect = {
-  v: vehicles,
-  depotCode: depots.code,
-  depotName: depots.name,
-  openDefects: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
-  defectCount: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id})`,
-};
+/** The caller's depots as a SQL condition on a defect alias `x` (defects stay with the depot that reported them). */
+function defectScopeSql(user: SessionUser | null): SQL {
+  if (!user || user.depotIds === null) return sql``;
+  if (user.depotIds.length === 0) return sql` and 0`;
+  return sql` and x.depot_id in (${sql.join(user.depotIds.map((d) => sql`${d}`), sql`, `)})`;
+}
+
+/** The columns of a vehicle row; its defect counts cover only defects the caller may see (a moved vehicle keeps its old depot's defects there). */
+function vehicleSelectFor(user: SessionUser | null) {
+  const scope = defectScopeSql(user);
+  return {
+    v: vehicles,
+    depotCode: depots.code,
+    depotName: depots.name,
+    openDefects: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id}${scope} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+    defectCount: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id}${scope})`,
+  };
+}
 
 type VehicleSel = { v: typeof vehicles.$inferSelect; depotCode: string; depotName: string; openDefects: number; defectCount: number };
 
@@ -275,7 +299,7 @@ const VEHICLE_SORT = {
   parking: vehicles.parking,
   washesPerMonth: vehicles.washesPerMonth,
   modelYear: vehicles.modelYear,
-  openDefects: vehicleSelect.openDefects,
+  openDefects: vehicleSelectFor(null).openDefects,
   createdAt: vehicles.createdAt,
   updatedAt: vehicles.updatedAt,
 };
@@ -307,12 +331,14 @@ export function listVehicles(user: SessionUser, q: VehicleListQuery): ListRespon
   const where = and(...conds);
   const total =
     db.select({ n: sql<number>`count(*)` }).from(vehicles).innerJoin(depots, eq(depots.id, vehicles.depotId)).where(where).get()?.n ?? 0;
+  const select = vehicleSelectFor(user);
+  const sortColumns = { ...VEHICLE_SORT, openDefects: select.openDefects };
   const rows = db
-    .select(vehicleSelect)
+    .select(select)
     .from(vehicles)
     .innerJoin(depots, eq(depots.id, vehicles.depotId))
     .where(where)
-    .orderBy(...orderBy(q.sort, VEHICLE_SORT, 'fleetNumber', vehicles.id))
+    .orderBy(...orderBy(q.sort, sortColumns, 'fleetNumber', vehicles.id))
     .limit(pageSize)
     .offset(offset)
     .all();
@@ -323,7 +349,7 @@ export function listVehicles(user: SessionUser, q: VehicleListQuery): ListRespon
 export function getVehicle(user: SessionUser, vinRaw: string): VehicleJson {
   const vin = vinRaw.trim().toUpperCase();
   const r = getDb()
-    .select(vehicleSelect)
+    .select(vehicleSelectFor(user))
     .from(vehicles)
     .innerJoin(depots, eq(depots.id, vehicles.depotId))
     .where(eq(vehicles.vin, vin))

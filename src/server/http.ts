@@ -106,7 +106,11 @@ export async function readJson<T>(ctx: APIContext, schema: ZodType<T>): Promise<
 /** Read a request body as text, refusing anything over `limit` bytes with 413. */
 export async function readTextLimited(request: Request, limit: number): Promise<string> {
   const bytes = await readBytesLimited(request, limit);
-  return new TextDecoder('utf-8').decode(bytes);
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw invalid('The request body is not valid UTF-8 text.');
+  }
 }
 
 /** Read a request body as bytes, refusing anything over `limit` bytes with 413. */

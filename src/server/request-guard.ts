@@ -6,13 +6,15 @@
  */
 import type { APIContext, MiddlewareNext } from 'astro';
 import type { SessionUser } from './auth';
-import { errorResponse, forbidden, unauthenticated } from './http';
+import { errorResponse, forbidden, HttpError, unauthenticated } from './http';
 import { loadSessionUser, userForToken } from './users';
 
 /** Reads the session's user id from the request (auth-astro in production, a fixed reader in tests). */
 export type SessionReader = (request: Request) => Promise<{ user?: { id?: string } } | null>;
 
 const PUBLIC_PAGES = new Set(['/signin', '/signout']);
+/** The Auth.js actions Seepline uses or that Auth.js answers on its own (credentials sign-in only). */
+const AUTH_ACTIONS = new Set(['csrf', 'session', 'providers', 'signin', 'signout', 'callback', 'error', 'verify-request']);
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 /** Paths that need no sign-in. */
@@ -65,7 +67,13 @@ export function isCrossSite(request: Request): boolean {
 export async function guardRequest(ctx: APIContext, next: MiddlewareNext, readSession: SessionReader): Promise<Response> {
   const path = ctx.url.pathname.replace(/\/+$/, '') || '/';
   const isApi = path === '/api' || path.startsWith('/api/');
-  if (path.startsWith('/api/auth/')) return next();
+  if (path.startsWith('/api/auth/')) {
+    // Auth.js answers its own actions; anything else under /api/auth (an unknown action, one of a provider we do
+    // not run) would end in a bare 500 inside the library, so it gets the error shape here instead.
+    const action = path.slice('/api/auth/'.length).split('/')[0] ?? '';
+    if (!AUTH_ACTIONS.has(action)) return errorResponse(new HttpError(404, 'NOT_FOUND', `There is no sign-in route ${path}.`));
+    return next();
+  }
   const { user, invalidToken } = await resolveCaller(ctx.request, readSession);
   if (user) ctx.locals.user = user;
   if (isApi) {

@@ -175,7 +175,7 @@ export function listTraces(user: SessionUser, q: { defectId?: number; verdict?: 
     eq(attachments.kind, 'trace'),
     q.defectId ? eq(attachments.defectId, q.defectId) : undefined,
     q.verdict ? sql`json_extract(${attachments.analysis}, '$.verdict') = ${q.verdict}` : undefined,
-    q.depot ? eq(depots.code, q.depot) : undefined,
+    q.depot ? eq(depots.code, q.depot.trim().toUpperCase()) : undefined,
     visibleToCaller,
   );
   const total =
