@@ -15,6 +15,7 @@ import { describeDtc, parseDtc, parseDtcList } from '@/lib/dtc/dtc';
 import { parseInstant } from '@/lib/dates/dates';
 import { cellsFromObject, validateRecord } from '@/lib/imports/rows';
 import { canEditRecord, requiresSafetyVerification } from '@/lib/defects/transitions';
+import { can } from '@/lib/auth/permissions';
 import { partsTotalMinor, repairCostMinor } from '@/lib/defects/cost';
 import { parseVin } from '@/lib/vin/vin';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
@@ -181,6 +182,11 @@ function validatedRow(body: Record<string, unknown>) {
  */
 export function createDefect(user: SessionUser, input: DefectCreate, actor: Actor): DefectRecord {
   const row = validatedRow({ ...input, reportedAt: input.reportedAt ?? new Date().toISOString() });
+  if (row.closedAtText !== null && !can(user.role, 'import')) {
+    // A record entered already closed is history (like an import row) and skips the steps and their checks.
+    throw forbidden('Entering a defect that is already closed is for fleet managers and admins; report it, then work it through its steps.');
+  }
+  checkReportedAt(row.reportedAtText);
   const v = vehicleForWrite(user, row.vin);
   const moduleId = moduleForWrite(row.moduleCode).id;
   const db = getDb();
@@ -196,6 +202,17 @@ export function createDefect(user: SessionUser, input: DefectCreate, actor: Acto
     return out.id;
   });
   return getDefect(user, id);
+}
+
+/** How far ahead of the server's clock a reported time may be (devices and time zones drift). */
+const REPORTED_AHEAD_TOLERANCE_MS = DAY_MS;
+
+/** A defect cannot be reported in the future (beyond a day of clock drift). */
+function checkReportedAt(text: string): void {
+  const t = parseInstant(text);
+  if (t !== null && t > Date.now() + REPORTED_AHEAD_TOLERANCE_MS) {
+    throw new HttpError(422, 'INVALID_INPUT', `reportedAt ${text} is in the future.`, [{ path: 'reportedAt', message: 'In the future' }]);
+  }
 }
 
 const str = (v: unknown) => (v === null || v === undefined ? null : String(v));
@@ -260,6 +277,7 @@ export function updateDefect(user: SessionUser, id: number, patch: DefectPatch, 
         codes = parseDtcList(patch.dtcs ?? '');
       }
       if (patch.reportedAt !== undefined) {
+        checkReportedAt(patch.reportedAt);
         set.reportedAt = parseInstant(patch.reportedAt, tz)!;
         set.reportedAtText = patch.reportedAt;
       }

@@ -17,6 +17,7 @@ import {
   requirementMessage,
   verificationComplete,
   type DefectStatus,
+  type Requirement,
   type TransitionRefusal,
   type TransitionRule,
   type VerificationState,
@@ -220,8 +221,12 @@ export function patchLifecycle(
     // around the release verification, and only for people who may close.
     const rule = findTransition('verified', 'closed')!;
     if (!rule.roles.includes(user.role)) throw forbidden('Your role cannot close defects.');
-    if (requiresSafetyVerification(moduleFunction) && !verificationComplete(ctx.verification)) {
-      throw refusal({ ok: false, code: 'needs', message: requirementMessage('safety_verification', rule, moduleFunction), missing: ['safety_verification'] });
+    // The same requirements as the Close step: a root cause, and the release verification where it applies.
+    const missing: Requirement[] = [];
+    if (!patch.hasRootCause) missing.push('root_cause');
+    if (requiresSafetyVerification(moduleFunction) && !verificationComplete(ctx.verification)) missing.push('safety_verification');
+    if (missing.length) {
+      throw refusal({ ok: false, code: 'needs', message: missing.map((n) => requirementMessage(n, rule, moduleFunction)).join(' '), missing });
     }
     return { set: stepEffects(row, rule, user.id, now, { closedAtMs: patch.closedAtMs }), step: { from, to: 'closed', reason: patch.reason ?? 'Closing time recorded' } };
   }

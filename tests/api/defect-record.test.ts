@@ -7,7 +7,7 @@ import { addVehicle, baseFleet, personWithToken } from '../factories/fleet';
 import * as defectsRoute from '../../src/pages/api/defects/index';
 import * as defectRoute from '../../src/pages/api/defects/[id]';
 
-let tech: { token: string; id: number }, techSth: { token: string; id: number }, vin: string;
+let tech: { token: string; id: number }, techSth: { token: string; id: number }, manager: { token: string; id: number }, vin: string;
 
 function sql<T = Record<string, unknown>>(q: string, ...args: unknown[]): T[] {
   const d = new Database(process.env.DATABASE_URL!);
@@ -25,6 +25,7 @@ beforeAll(async () => {
   vin = addVehicle('NTH');
   tech = await personWithToken('technician', ['NTH']);
   techSth = await personWithToken('technician', ['STH']);
+  manager = await personWithToken('manager');
 });
 
 describe('reporting a defect', () => {
@@ -140,7 +141,7 @@ describe('the diagnosis and repair record', () => {
   });
   it('moving a defect to another door re-links repeats and is audited', async () => {
     const v2 = addVehicle('NTH');
-    const a = await body(await create({ vin: v2, position: 'FL', moduleCode: 'LCK-1', reportedAt: '2025-05-01', closedAt: '2025-05-02' }));
+    const a = await body(await create({ vin: v2, position: 'FL', moduleCode: 'LCK-1', reportedAt: '2025-05-01', closedAt: '2025-05-02' }, manager.token));
     const b = await body(await create({ vin: v2, position: 'FR', moduleCode: 'LCK-1', reportedAt: '2025-06-01' }));
     expect(b.repeat).toBe(false);
     const moved = await body(await patch(b.id, { version: b.version, position: 'fl' }));

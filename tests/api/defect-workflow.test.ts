@@ -332,8 +332,35 @@ describe('the release verification', () => {
     expect(p3.status).toBe(200);
     expect(await body(p3)).toMatchObject({ status: 'closed', closedAt: '2030-01-01T10:00:00.000Z' });
   });
-  it('a record entered closed (work done before Seepline) is accepted as history and marked so', async () => {
-    const d = await report('WLR-2', tech, { reportedAt: '2025-03-01T09:00', closedAt: '2025-03-04T16:00' });
+  it('closing by PATCH needs the root cause, as the Close step does; given in the same PATCH it closes', async () => {
+    const d = await report('LCK-1');
+    expect(d.rootCause).toBeNull();
+    const refused = await patch(d.id, { closedAt: new Date().toISOString(), version: d.version }, tech);
+    expect(refused.status).toBe(422);
+    expect((await body(refused)).error.message).toMatch(/root cause/i);
+    expect((await get(d.id)).status).toBe('reported');
+    const ok = await patch(d.id, { closedAt: new Date().toISOString(), rootCause: 'mechanical', action: 'Refitted the actuator rod', version: d.version }, tech);
+    expect(ok.status).toBe(200);
+    expect(await body(ok)).toMatchObject({ status: 'closed', rootCause: 'mechanical' });
+  });
+  it('a defect cannot be reported in the future, by POST or by PATCH', async () => {
+    const vin = addVehicle('NTH');
+    const ahead = new Date(Date.now() + 3 * 86_400_000).toISOString();
+    const r = await call(defectsRoute, 'POST', '/x', { token: tech.token, json: { vin, position: 'FL', moduleCode: 'LCK-1', reportedAt: ahead } });
+    expect(r.status).toBe(422);
+    expect((await body(r)).error.issues).toEqual([{ path: 'reportedAt', message: 'In the future' }]);
+    const d = await report('LCK-1');
+    const p = await patch(d.id, { reportedAt: '2099-01-01', version: d.version }, tech);
+    expect(p.status).toBe(422);
+    expect((await get(d.id)).reportedAt).toBe(d.reportedAt);
+  });
+  it('a record entered closed (work done before Seepline) is history for managers and admins, refused to a technician', async () => {
+    const vin = addVehicle('NTH');
+    const refused = await call(defectsRoute, 'POST', '/x', { token: tech.token, json: { vin, position: 'FL', moduleCode: 'WLR-2', reportedAt: '2025-03-01T09:00', closedAt: '2025-03-04T16:00' } });
+    expect(refused.status).toBe(403);
+    expect((await body(refused)).error.message).toMatch(/already closed is for fleet managers and admins/);
+    expect((await body(await call(defectsRoute, 'GET', `/x?vin=${vin}`, { token: manager.token }))).total).toBe(0);
+    const d = await report('WLR-2', manager, { reportedAt: '2025-03-01T09:00', closedAt: '2025-03-04T16:00' });
     expect(d).toMatchObject({ status: 'closed', verification: null, safetyVerificationRequired: true });
     expect(d.timeline).toEqual([{ at: '2025-03-04T16:00:00.000Z', from: 'reported', to: 'closed', by: null, reason: 'Closed on record (imported or entered closed)' }]);
   });
@@ -385,7 +412,8 @@ describe('repeat links follow closing, re-opening and cancelling', () => {
     [91, false],
   ])('a defect reported %i days after the earlier one closed is a repeat: %s', async (days, isRepeat) => {
     const vin = addVehicle('NTH');
-    await call(defectsRoute, 'POST', '/x', { token: tech.token, json: { vin, position: 'RR', moduleCode: 'HRN-1', reportedAt: '2025-01-02T08:00Z', closedAt: '2025-01-05T12:00Z' } });
+    const earlier = await call(defectsRoute, 'POST', '/x', { token: manager.token, json: { vin, position: 'RR', moduleCode: 'HRN-1', reportedAt: '2025-01-02T08:00Z', closedAt: '2025-01-05T12:00Z' } });
+    expect(earlier.status).toBe(201);
     const later = new Date(Date.UTC(2025, 0, 5, 12) + days * 86_400_000).toISOString();
     const d = await body(await call(defectsRoute, 'POST', '/x', { token: tech.token, json: { vin, position: 'RR', moduleCode: 'HRN-1', reportedAt: later } }));
     expect(d.repeat).toBe(isRepeat);

@@ -62,6 +62,18 @@ describe('buildDefectsCsv', () => {
     expect(b.dtcs).toEqual([]);
   });
 
+  it('guards cells a spreadsheet would run as formulas, and the import reads them back unchanged (OWASP CSV injection)', () => {
+    const risky = { ...open, symptom: '=HYPERLINK("http://example.invalid","click")', action: '-5 turns on the regulator; @check' };
+    const csv = buildDefectsCsv([risky]);
+    const dataLine = csv.split('\r\n')[1]!;
+    expect(dataLine).toContain(`"'=HYPERLINK(""http://example.invalid"",""click"")"`);
+    expect(dataLine).toContain(`'-5 turns on the regulator; @check`);
+    const v = validateRows('defects', readCsv(csv));
+    expect(v.errors).toEqual([]);
+    expect(v.rows[0]!.value.symptom).toBe(risky.symptom);
+    expect(v.rows[0]!.value.action).toBe(risky.action);
+  });
+
   it('writes only the header for an empty view', () => {
     const table = readCsv(buildDefectsCsv([]));
     expect(table.headers).toEqual([...DEFECT_CSV_COLUMNS]);

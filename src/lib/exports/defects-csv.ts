@@ -36,7 +36,10 @@ export type DefectCsvSource = {
   closedAt: string | null;
 };
 
-/** CSV text (CRLF line ends, RFC 4180 quoting, leading byte-order mark for spreadsheets). */
+/**
+ * CSV text (CRLF line ends, RFC 4180 quoting, leading byte-order mark for spreadsheets). A free-text cell that a
+ * spreadsheet would run as a formula (=, +, -, @, tab, CR first) gets a leading apostrophe; the import drops it.
+ */
 export function buildDefectsCsv(rows: DefectCsvSource[]): string {
   const data = rows.map((d) => [
     d.ref,
@@ -52,7 +55,7 @@ export function buildDefectsCsv(rows: DefectCsvSource[]): string {
     d.odometerKm === null ? '' : String(d.odometerKm),
     d.closedAt ?? '',
   ]);
-  return '\uFEFF' + Papa.unparse({ fields: [...DEFECT_CSV_COLUMNS], data }, { newline: '\r\n', quotes: false, escapeFormulae: false });
+  return '\uFEFF' + Papa.unparse({ fields: [...DEFECT_CSV_COLUMNS], data }, { newline: '\r\n', quotes: false, escapeFormulae: true });
 }
 
 /** File name of a download made on a given day, e.g. `seepline-defects-2026-12-02.csv`. */

@@ -70,9 +70,17 @@ export function readCsv(input: string): CsvTable {
   const records = nonBlank.slice(1).map((r, i) => {
     const cells: Record<string, string> = {};
     headers.forEach((h, j) => {
-      if (h !== '' && !(h in cells)) cells[h] = (r[j] ?? '').trim();
+      if (h !== '' && !(h in cells)) cells[h] = unguardFormula((r[j] ?? '').trim());
     });
     return { row: i + 1, cells };
   });
   return { headers, records, delimiter };
+}
+
+/**
+ * Undo the guard our exports (and careful spreadsheet users) put before a cell that a spreadsheet would run as a
+ * formula: a leading apostrophe before =, +, -, @ is dropped, so an exported file re-imports unchanged.
+ */
+export function unguardFormula(cell: string): string {
+  return /^'[=+\-@]/.test(cell) ? cell.slice(1) : cell;
 }
