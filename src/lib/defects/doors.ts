@@ -19,3 +19,21 @@ export function sortByDoor<T>(items: readonly T[], door: (item: T) => string = (
     .sort((a, b) => rank(door(a.item)) - rank(door(b.item)) || a.i - b.i)
     .map((x) => x.item);
 }
+
+/** What a door tile shows: defects on the door, how many are open, repeats, and how many found moisture. */
+export type DoorCount = { total: number; open: number; repeats: number; water: number };
+
+const WET = new Set(['traces', 'corrosion', 'standing_water']);
+
+/** Count a vehicle's defects per door ("water" = moisture traces, corrosion or standing water found). */
+export function countByDoor(items: ReadonlyArray<{ position: string; open: boolean; repeat: boolean; moisture: string | null }>): Record<string, DoorCount> {
+  const counts: Record<string, DoorCount> = {};
+  for (const d of items) {
+    const c = (counts[d.position] ??= { total: 0, open: 0, repeats: 0, water: 0 });
+    c.total++;
+    if (d.open) c.open++;
+    if (d.repeat) c.repeats++;
+    if (d.moisture && WET.has(d.moisture)) c.water++;
+  }
+  return counts;
+}

@@ -32,14 +32,16 @@ describe('report time against the build month', () => {
 });
 
 describe('release verification time', () => {
-  const base = { nowMs: 10_000_000, reportedAtMs: 1_000_000, repairedAtMs: 5_000_000, skewMs: 300_000 };
-  it('accepts a time between the repair and now (with clock drift)', () => {
-    expect(checkVerificationTime({ ...base, atMs: 5_000_000 })).toBeNull();
+  // Repaired at 5,010,000 ms = minute 83 (4,980,000–5,039,999).
+  const base = { nowMs: 10_000_000, reportedAtMs: 1_000_000, repairedAtMs: 5_010_000, skewMs: 300_000 };
+  it('accepts a time from the minute of the repair to now (with clock drift)', () => {
+    expect(checkVerificationTime({ ...base, atMs: 5_010_000 })).toBeNull();
+    expect(checkVerificationTime({ ...base, atMs: 4_980_000 })).toBeNull();
     expect(checkVerificationTime({ ...base, atMs: 10_300_000 })).toBeNull();
   });
-  it('refuses the future, before the repair and before the report', () => {
+  it('refuses the future, an earlier minute than the repair, and before the report', () => {
     expect(checkVerificationTime({ ...base, atMs: 10_300_001 })?.code).toBe('future');
-    expect(checkVerificationTime({ ...base, atMs: 4_999_999 })?.code).toBe('before_repair');
+    expect(checkVerificationTime({ ...base, atMs: 4_979_999 })?.code).toBe('before_repair');
     expect(checkVerificationTime({ ...base, atMs: 999_999 })?.code).toBe('before_repair');
     expect(checkVerificationTime({ ...base, repairedAtMs: null, atMs: 999_999 })?.code).toBe('before_report');
     expect(checkVerificationTime({ ...base, repairedAtMs: null, atMs: 1_000_000 })).toBeNull();

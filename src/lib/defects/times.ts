@@ -7,6 +7,7 @@
  */
 import { parseInstant } from '../dates/dates';
 
+const MINUTE_MS = 60_000;
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
 /** "2022-01" → "Jan 2022" (other text is returned as it is). */
@@ -42,11 +43,13 @@ export type VerificationTimeProblem = { code: 'future' | 'before_report' | 'befo
 
 /**
  * Check the time a release verification was done. `repairedAtMs` is the latest step to "repaired" (null when
- * the record has none, e.g. imported history); `skewMs` is how far ahead of `nowMs` a clock may drift.
+ * the record has none, e.g. imported history), compared to the minute; `skewMs` is how far ahead of `nowMs`
+ * a clock may drift.
  */
 export function checkVerificationTime(o: { atMs: number; nowMs: number; reportedAtMs: number; repairedAtMs: number | null; skewMs: number }): VerificationTimeProblem | null {
   if (o.atMs > o.nowMs + o.skewMs) return { code: 'future', message: 'The verification cannot be in the future.' };
-  if (o.repairedAtMs !== null && o.atMs < o.repairedAtMs) {
+  // People give the time to the minute: the minute the repair was recorded in is allowed.
+  if (o.repairedAtMs !== null && Math.floor(o.atMs / MINUTE_MS) < Math.floor(o.repairedAtMs / MINUTE_MS)) {
     return { code: 'before_repair', message: 'The verification cannot be before the repair was recorded: check the time it was done.' };
   }
   if (o.atMs < o.reportedAtMs) return { code: 'before_report', message: 'The verification cannot be before the defect was reported.' };
