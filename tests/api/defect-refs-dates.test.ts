@@ -1,6 +1,6 @@
 // Refs of new defects (one DF-YY-NNNNN format, by year of report, unique under concurrent reports), report
-// times before the vehicle was built (refused by POST and PATCH), and release verifications dated before the
-// repair they verify (refused).
+// times before the vehicle was built (refused by POST and PATCH), release verifications dated before the
+// repair they verify (refused), and audit rows that name the people they refer to.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -150,5 +150,21 @@ describe('a release verification dated before the repair', () => {
     const r = await body(await step(d.id, { to: 'repaired', version: v }));
     const res = await step(d.id, { to: 'closed', version: r.version, verification: { reinitialised: true, reversalVerified: true, at: '2026-01-06T08:00Z' } }, manager);
     expect(res.status).toBe(422);
+  });
+});
+
+describe('the audit trail', () => {
+  it('names the person an assignment or a verification refers to, beside the stored id', async () => {
+    const vin = addVehicle('NTH');
+    const d = await body(await create({ vin, position: 'TG', moduleCode: 'WLR-2', reportedAt: '2026-01-05T08:00Z' }));
+    let v = (await body(await step(d.id, { to: 'diagnosing', version: d.version }))).version;
+    v = (await body(await patch(d.id, { version: v, action: 'Replaced the motor', rootCause: 'water_ingress' }))).version;
+    v = (await body(await step(d.id, { to: 'repaired', version: v }))).version;
+    const r = await body(await step(d.id, { to: 'verified', version: v, verification: { reinitialised: true, reversalVerified: true } }));
+    const row = (field: string) => r.audit.find((a: { field: string }) => a.field === field);
+    expect(row('assignedToId')).toMatchObject({ oldValue: null, newValue: String(tech.id), oldLabel: null, newLabel: 'technician person' });
+    expect(row('verifiedById')).toMatchObject({ newValue: String(tech.id), newLabel: 'technician person' });
+    // Other fields carry no label.
+    expect(row('action')).toMatchObject({ newValue: 'Replaced the motor', newLabel: null });
   });
 });

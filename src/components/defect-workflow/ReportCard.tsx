@@ -155,7 +155,7 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
 
   /** Save the changed fields; true when saved (or nothing to save). */
   const submit = useCallback(
-    async (out: Output): Promise<boolean> => {
+    async (out: Output, fromStep = false): Promise<boolean> => {
       setFormError(null);
       const changed = vf.changed();
       if (changed.length === 0) {
@@ -167,8 +167,9 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
       try {
         const saved = await save.mutateAsync(patch);
         vf.saved(saved);
-        // The door or module type are shown outside this card (header): show them fresh.
-        if (changed.includes('position') || changed.includes('moduleCode')) window.location.reload();
+        // The door or module type are shown in the page header (server-rendered): show them fresh — unless a
+        // step is saving these edits first, which a reload would cut short (the cards update by themselves).
+        if (!fromStep && (changed.includes('position') || changed.includes('moduleCode'))) window.location.reload();
         else onDone();
         return true;
       } catch (err) {
@@ -193,7 +194,7 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
         if (vf.conflict) return resolve('failed');
         if (vf.changed().length === 0) return resolve('clean');
         void handleSubmit(
-          async (out) => resolve((await submit(out)) ? 'saved' : 'failed'),
+          async (out) => resolve((await submit(out, true)) ? 'saved' : 'failed'),
           () => resolve('failed'),
         )();
       }),
