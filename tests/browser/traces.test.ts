@@ -54,6 +54,7 @@ describe('Traces', () => {
     await card.getByLabel('Pulses per revolution').fill('2');
     await card.getByLabel('Capture file', { exact: true }).setInputFiles({ name: 'door-fl-hall.csv', mimeType: 'text/csv', buffer: Buffer.from(healthy) });
     await card.getByTestId('trace-added').getByText('Healthy', { exact: true }).waitFor();
+    await card.getByTestId('trace-added').getByText('door-fl-hall.csv', { exact: true }).waitFor();
     expect(new URL(page.url()).pathname).toBe(`/defects/${defect.id}`);
     if (editable) expect(await notes.inputValue()).toBe(typed);
     // The new trace is in the card with its verdict; the audit trail says what happened in words.

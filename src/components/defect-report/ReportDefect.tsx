@@ -322,7 +322,7 @@ function Report({ modules, reporterName, initialVehicle, repeatWindowDays }: Pro
             />
             {/* A mistyped code is said once, in the decoded list under the field (not again here). */}
             <p id={`${id('dtcs')}-hint`} className={`mt-1 text-xs ${e.dtcs ? 'font-semibold text-brick-700' : 'text-ink-500'}`}>
-              {e.dtcs ? 'Fix the code marked below, or remove it.' : 'As the scan tool shows them, separated by spaces: B1A21 or B1A21-29 (with the failure type).'}
+              {e.dtcs ? 'Fix the code marked below, or remove it' : 'As the scan tool shows them, separated by spaces: B1A21 or B1A21-29 (with the failure type).'}
             </p>
             <DtcDecoded text={dtcText ?? ''} id={`${id('dtcs')}-decoded`} />
           </div>

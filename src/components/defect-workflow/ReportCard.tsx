@@ -237,7 +237,7 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
           {...register('dtcs')}
         />
         <p id={`${id('dtcs')}-hint`} className={`mt-1 text-xs ${e.dtcs ? 'font-semibold text-brick-700' : 'text-ink-500'}`}>
-          {e.dtcs ? 'Fix the code marked below, or remove it.' : 'SAE J2012 form, separated by spaces: B1A21 or B1A21-29.'}
+          {e.dtcs ? 'Fix the code marked below, or remove it' : 'SAE J2012 form, separated by spaces: B1A21 or B1A21-29.'}
         </p>
         <DtcDecoded text={dtcText ?? ''} id={`${id('dtcs')}-decoded`} />
       </div>

@@ -37,14 +37,14 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
   const list = useTraces({ defectId: String(defectId), pageSize: '50' });
   const items = list.data?.items ?? [];
   const [adding, setAdding] = useState(false);
-  const [added, setAdded] = useState<TraceRecord | null>(null);
+  const [added, setAdded] = useState<{ trace: TraceRecord; name: string } | null>(null);
   const [uploading, setUploading] = useState(false);
   const qc = useQueryClient();
   useUnsavedChanges(`trace-upload-${defectId}`, 'the scope capture being uploaded', uploading);
   const showZone = canUpload && (adding || (list.data !== undefined && items.length === 0 && !added));
 
-  const onUploaded = (trace: TraceRecord) => {
-    setAdded(trace);
+  const onUploaded = (trace: TraceRecord, file: File) => {
+    setAdded({ trace, name: trace.fileName ?? file.name });
     setAdding(false);
     // The list shows it; the defect's audit trail shows the upload.
     void qc.invalidateQueries({ queryKey: ['traces', 'list'] });
@@ -68,9 +68,9 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
         <p className="flex flex-wrap items-center gap-x-2 gap-y-1 rounded-md border border-moss-600 bg-moss-50 px-3 py-2 text-sm text-moss-700" role="status" data-testid="trace-added">
           <Check size={16} aria-hidden="true" />
           <span>
-            Added <span className="font-semibold wrap-anywhere">{added.fileName ?? `capture ${added.id}`}</span>: <span className="font-semibold">{verdictLabel(added.verdict)}</span>.
+            Added <span className="font-semibold wrap-anywhere">{added.name}</span>: <span className="font-semibold">{verdictLabel(added.trace.verdict)}</span>.
           </span>
-          <a className="link" href={`/traces/${encodeURIComponent(added.id)}`}>
+          <a className="link" href={`/traces/${encodeURIComponent(added.trace.id)}`}>
             Open the trace
           </a>
         </p>
@@ -78,7 +78,7 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
       {items.length > 0 && (
         <ul className="divide-y divide-ink-100 rounded-md border border-ink-200" aria-label="Traces on this defect">
           {items.map((t) => (
-            <li key={t.id} className={`flex flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2.5 ${added?.id === t.id ? 'bg-moss-50/60' : ''}`}>
+            <li key={t.id} className={`flex flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2.5 ${added?.trace.id === t.id ? 'bg-moss-50/60' : ''}`}>
               <span className={verdictBadge(t.verdict)}>{verdictLabel(t.verdict)}</span>
               <a className="link min-w-0 flex-1 break-all" href={`/traces/${encodeURIComponent(t.id)}`}>
                 {t.fileName ?? `Capture ${t.id}`}

@@ -18,7 +18,7 @@ type Props = {
   /** Fewer words (the defect page card). */
   compact?: boolean;
   /** Stay on the page and hand the stored trace over, instead of opening the trace page. */
-  onUploaded?: (trace: TraceRecord) => void;
+  onUploaded?: (trace: TraceRecord, file: File) => void;
   /** Hears whether an upload is under way (to hold the page while it is). */
   onBusyChange?: (busy: boolean) => void;
 };
@@ -64,7 +64,7 @@ export function UploadZone({ defectId, compact = false, onUploaded, onBusyChange
       .then((trace) => {
         if (onUploaded) {
           setRun({ state: 'idle' });
-          onUploaded(trace);
+          onUploaded(trace, file);
           return;
         }
         setRun({ state: 'done', file, id: trace.id });

@@ -6,7 +6,7 @@ describe('report time against the build month', () => {
     expect(monthWords('2022-01')).toBe('Jan 2022');
     expect(monthWords('2021-12')).toBe('Dec 2021');
     expect(monthWords('2022-13')).toBe('2022-13');
-    expect(beforeBuildMessage('2022-01')).toBe('Reported at is before the vehicle was built (Jan 2022): check the date.');
+    expect(beforeBuildMessage('2022-01')).toBe('Reported at is before the vehicle was built (Jan 2022): check the date');
   });
   it('starts the build month at midnight in the depot time zone', () => {
     expect(buildMonthStartMs('2022-01')).toBe(Date.parse('2022-01-01T00:00:00Z'));

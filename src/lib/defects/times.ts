@@ -24,7 +24,7 @@ export function buildMonthStartMs(buildMonth: string, tz?: string | null): numbe
 
 /** The sentence for a report dated before the vehicle was built. */
 export function beforeBuildMessage(buildMonth: string): string {
-  return `Reported at is before the vehicle was built (${monthWords(buildMonth)}): check the date.`;
+  return `Reported at is before the vehicle was built (${monthWords(buildMonth)}): check the date`;
 }
 
 /** True when a report time falls before the vehicle's build month (read in the depot's time zone). */
