@@ -10,13 +10,14 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { attachments, defectParts, defects, defectTransitions, depots, modules, settings, users, vehicles } from '@/db/schema';
 import { uploadDir } from '@/env';
-import type { DefectCreate, DefectPatch, DefectRecord, Part, TimelineEntry, TransitionRequest } from '@/lib/contracts/defects';
+import type { AuditRow, DefectCreate, DefectPatch, DefectRecord, Part, TimelineEntry, TransitionRequest } from '@/lib/contracts/defects';
 import { describeDtc, parseDtc, parseDtcList } from '@/lib/dtc/dtc';
 import { parseInstant } from '@/lib/dates/dates';
 import { cellsFromObject, validateRecord } from '@/lib/imports/rows';
 import { canEditRecord, requiresSafetyVerification } from '@/lib/defects/transitions';
 import { can } from '@/lib/auth/permissions';
 import { partsTotalMinor, repairCostMinor } from '@/lib/defects/cost';
+import { beforeBuildMessage, reportedBeforeBuild } from '@/lib/defects/times';
 import { parseVin } from '@/lib/vin/vin';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
 import { conflict, forbidden, HttpError, invalid, notFound } from './http';
@@ -142,15 +143,48 @@ export function getDefect(user: SessionUser, id: number): DefectRecord {
     repeatWindowDays: repeatWindowDays(db),
     timeline,
     photos: listPhotos(d.id),
-    audit: listAudit('defect', String(d.id)),
+    audit: withAuditLabels(listAudit('defect', String(d.id))),
   };
   return record;
+}
+
+/** Audit fields that hold the id of another record, and how to name that record. */
+const ID_FIELDS: Record<string, (ids: number[]) => Array<{ id: number; label: string }>> = {
+  assignedToId: (ids) => getDb().select({ id: users.id, label: users.name }).from(users).where(inArray(users.id, ids)).all(),
+  verifiedById: (ids) => getDb().select({ id: users.id, label: users.name }).from(users).where(inArray(users.id, ids)).all(),
+  reportedById: (ids) => getDb().select({ id: users.id, label: users.name }).from(users).where(inArray(users.id, ids)).all(),
+  moduleId: (ids) => getDb().select({ id: modules.id, label: modules.code }).from(modules).where(inArray(modules.id, ids)).all(),
+  depotId: (ids) => getDb().select({ id: depots.id, label: depots.code }).from(depots).where(inArray(depots.id, ids)).all(),
+  repeatOfId: (ids) => getDb().select({ id: defects.id, label: defects.ref }).from(defects).where(inArray(defects.id, ids)).all(),
+  vehicleId: (ids) =>
+    getDb()
+      .select({ id: vehicles.id, vin: vehicles.vin, fleet: vehicles.fleetNumber })
+      .from(vehicles)
+      .where(inArray(vehicles.id, ids))
+      .all()
+      .map((v) => ({ id: v.id, label: v.fleet ? `${v.fleet} (${v.vin})` : v.vin })),
+};
+
+/**
+ * Name the records that audit rows refer to by id (people, module types, depots, vehicles, defects), so the
+ * trail reads "Assigned to – → Oskar Lindvale" rather than "→ 4". The stored values stay as they are.
+ */
+function withAuditLabels(rows: ReturnType<typeof listAudit>): AuditRow[] {
+  const wanted = new Map<string, Set<number>>();
+  for (const r of rows) {
+    if (!r.field || !(r.field in ID_FIELDS)) continue;
+    for (const v of [r.oldValue, r.newValue]) if (v !== null && /^\d+$/.test(v)) (wanted.get(r.field) ?? wanted.set(r.field, new Set()).get(r.field)!).add(Number(v));
+  }
+  const names = new Map<string, string>();
+  for (const [field, ids] of wanted) for (const x of ID_FIELDS[field]!([...ids])) names.set(`${field}:${x.id}`, x.label);
+  const label = (field: string | null, v: string | null) => (field && v !== null && field in ID_FIELDS ? (names.get(`${field}:${v}`) ?? null) : null);
+  return rows.map((r) => ({ ...r, oldLabel: label(r.field, r.oldValue), newLabel: label(r.field, r.newValue) }));
 }
 
 function vehicleForWrite(user: SessionUser, vinRaw: string) {
   const vin = vinRaw.trim().toUpperCase();
   const v = getDb()
-    .select({ id: vehicles.id, depotId: vehicles.depotId, timezone: depots.timezone })
+    .select({ id: vehicles.id, depotId: vehicles.depotId, timezone: depots.timezone, buildMonth: vehicles.buildMonth })
     .from(vehicles)
     .innerJoin(depots, eq(depots.id, vehicles.depotId))
     .where(eq(vehicles.vin, vin))
@@ -188,9 +222,11 @@ export function createDefect(user: SessionUser, input: DefectCreate, actor: Acto
   }
   checkReportedAt(row.reportedAtText);
   const v = vehicleForWrite(user, row.vin);
+  checkNotBeforeBuild(parseInstant(row.reportedAtText, v.timezone), v.buildMonth, v.timezone);
   const moduleId = moduleForWrite(row.moduleCode).id;
   const db = getDb();
   if (row.ref && db.select({ id: defects.id }).from(defects).where(eq(defects.ref, row.ref)).get()) throw conflict(`A defect with ref ${row.ref} already exists.`);
+  // IMMEDIATE: the write lock is taken before the next ref of the year is read (src/server/defect-refs.ts).
   const id = db.transaction((tx) => {
     const out = applyDefectRow(tx, row, { vehicleId: v.id, depotId: v.depotId, timezone: v.timezone, moduleId }, actor, 'api');
     if (out.outcome !== 'inserted') throw conflict('The same defect (vehicle, time, door and module) is already recorded.', { id: out.id });
@@ -200,7 +236,7 @@ export function createDefect(user: SessionUser, input: DefectCreate, actor: Acto
       .run();
     refreshRepeats(tx, [v.id]);
     return out.id;
-  });
+  }, { behavior: 'immediate' });
   return getDefect(user, id);
 }
 
@@ -212,6 +248,14 @@ function checkReportedAt(text: string): void {
   const t = parseInstant(text);
   if (t !== null && t > Date.now() + REPORTED_AHEAD_TOLERANCE_MS) {
     throw new HttpError(422, 'INVALID_INPUT', `reportedAt ${text} is in the future.`, [{ path: 'reportedAt', message: 'In the future' }]);
+  }
+}
+
+/** A defect cannot be reported before its vehicle's build month (a slip of the date picker, not history). */
+function checkNotBeforeBuild(reportedAtMs: number | null, buildMonth: string, tz: string | null): void {
+  if (reportedAtMs !== null && reportedBeforeBuild(reportedAtMs, buildMonth, tz)) {
+    const message = beforeBuildMessage(buildMonth);
+    throw new HttpError(422, 'INVALID_INPUT', message, [{ path: 'reportedAt', message }]);
   }
 }
 
@@ -249,6 +293,7 @@ export function updateDefect(user: SessionUser, id: number, patch: DefectPatch, 
       const set: Partial<DefectDb> = {};
       const vehicleIds = new Set([row.vehicleId]);
       let tz = timezone;
+      let buildMonth: string | null = null;
       if (patch.vin !== undefined) {
         const parsed = parseVin(patch.vin);
         if (!parsed.ok && parsed.code !== 'check_digit') throw invalid(parsed.message, [{ path: 'vin', message: parsed.message }]);
@@ -258,6 +303,7 @@ export function updateDefect(user: SessionUser, id: number, patch: DefectPatch, 
           set.depotId = v.depotId;
           vehicleIds.add(v.id);
           tz = v.timezone;
+          buildMonth = v.buildMonth;
         }
       }
       if (patch.position !== undefined) set.position = patch.position;
@@ -312,6 +358,11 @@ export function updateDefect(user: SessionUser, id: number, patch: DefectPatch, 
       );
       const merged: Partial<DefectDb> = { ...set, ...(life?.set ?? {}) };
       const reportedAt = merged.reportedAt ?? row.reportedAt;
+      if (patch.reportedAt !== undefined || buildMonth !== null) {
+        // A new report time, or another vehicle: the report must not be before that vehicle was built.
+        buildMonth ??= tx.select({ m: vehicles.buildMonth }).from(vehicles).where(eq(vehicles.id, row.vehicleId)).get()?.m ?? null;
+        if (buildMonth !== null) checkNotBeforeBuild(reportedAt, buildMonth, tz);
+      }
       const closedAt = 'closedAt' in merged ? merged.closedAt : row.closedAt;
       if (closedAt !== null && closedAt !== undefined && closedAt < reportedAt) {
         throw new HttpError(422, 'INVALID_INPUT', 'The closing time is before the defect was reported.', [{ path: 'closedAt', message: 'Before reported_at' }]);

@@ -5,11 +5,12 @@
  * the version check. Used by POST /api/defects/{id}/transitions and by PATCH when it carries `status` or
  * `closedAt`. Edit the rules in the engine, not here.
  */
-import { eq } from 'drizzle-orm';
+import { and, eq, max } from 'drizzle-orm';
 import type { Db } from '@/db/client';
 import { defects, defectTransitions, depots, modules } from '@/db/schema';
 import type { TransitionRequest, VerificationInput } from '@/lib/contracts/defects';
 import { parseInstant } from '@/lib/dates/dates';
+import { checkVerificationTime } from '@/lib/defects/times';
 import {
   checkTransition,
   findTransition,
@@ -50,13 +51,23 @@ export function refusal(r: TransitionRefusal): HttpError {
   return new HttpError(422, 'INVALID_INPUT', r.message, issues);
 }
 
-/** Time of a supplied verification: given (not before the report, not in the future) or now. */
-function verificationTime(v: VerificationInput, reportedAt: number, now: number, tz: string | null): number {
+/** When the defect was last marked repaired (the repair a verification checks), or null when never in Seepline. */
+function lastRepairedAt(tx: Tx, defectId: number): number | null {
+  const r = tx
+    .select({ at: max(defectTransitions.at) })
+    .from(defectTransitions)
+    .where(and(eq(defectTransitions.defectId, defectId), eq(defectTransitions.toStatus, 'repaired')))
+    .get();
+  return r?.at ?? null;
+}
+
+/** Time of a supplied verification: given (not in the future, not before the repair or the report) or now. */
+function verificationTime(v: VerificationInput, reportedAt: number, repairedAt: number | null, now: number, tz: string | null): number {
   if (!v.at) return now;
   const at = parseInstant(v.at, tz);
   if (at === null) throw new HttpError(422, 'INVALID_INPUT', 'Checked at is not a date-time.', [{ path: 'verification.at', message: 'Not a date-time' }]);
-  if (at > now + CLOCK_SKEW_MS) throw new HttpError(422, 'INVALID_INPUT', 'The verification cannot be in the future.', [{ path: 'verification.at', message: 'In the future' }]);
-  if (at < reportedAt) throw new HttpError(422, 'INVALID_INPUT', 'The verification cannot be before the defect was reported.', [{ path: 'verification.at', message: 'Before the report' }]);
+  const problem = checkVerificationTime({ atMs: at, nowMs: now, reportedAtMs: reportedAt, repairedAtMs: repairedAt, skewMs: CLOCK_SKEW_MS });
+  if (problem) throw new HttpError(422, 'INVALID_INPUT', problem.message, [{ path: 'verification.at', message: problem.message }]);
   return at;
 }
 
@@ -174,7 +185,9 @@ export function applyTransition(tx: Tx, user: SessionUser, id: number, req: Tran
   if (req.verification && req.to !== 'verified' && req.to !== 'closed') {
     throw new HttpError(422, 'INVALID_INPUT', 'A verification is recorded with the step to verified or closed.', [{ path: 'verification', message: 'Not with this step' }]);
   }
-  const supplied = req.verification ? { atMs: verificationTime(req.verification, row.reportedAt, now, timezone), note: req.verification.note ?? null } : undefined;
+  const supplied = req.verification
+    ? { atMs: verificationTime(req.verification, row.reportedAt, lastRepairedAt(tx, row.id), now, timezone), note: req.verification.note ?? null }
+    : undefined;
   const verification: VerificationState | null = supplied
     ? { reinitialised: true, reversalVerified: true, byUserId: user.id, atMs: supplied.atMs }
     : verificationOf(row);

@@ -4,7 +4,7 @@
  * applies inside the transaction and rolls it back, so its counts are exactly what a real run would do.
  * The same `apply…Row` functions serve the single-record create and update endpoints.
  */
-import { eq, inArray, sql } from 'drizzle-orm';
+import { eq, inArray } from 'drizzle-orm';
 import { getDb, type Db } from '@/db/client';
 import { auditLog, defectCodes, defects, depots, modules, vehicles } from '@/db/schema';
 import { CsvFormatError, readCsv } from '@/lib/imports/csv-read';
@@ -20,6 +20,7 @@ import {
 import { parseInstant } from '@/lib/dates/dates';
 import type { Actor } from './audit';
 import { refreshRepeats } from './repeats';
+import { assignDefectRefs } from './defect-refs';
 
 export type Outcome = 'inserted' | 'updated' | 'unchanged';
 export type ImportResult = {
@@ -220,11 +221,6 @@ export function writeDefectCodes(tx: Tx, defectId: number, dtcs: DefectRow['dtcs
   }
 }
 
-/** Generated reference for a defect without one. */
-export function defectRef(id: number): string {
-  return `DF-${String(id).padStart(6, '0')}`;
-}
-
 const naturalKey = (vehicleId: number, reportedAt: number, position: string, moduleId: number) => `${vehicleId}|${reportedAt}|${position}|${moduleId}`;
 
 /** Apply defect rows: by ref when given, else by (vehicle, reported_at, position, module). */
@@ -289,9 +285,11 @@ export function applyDefectRows(tx: Tx, rows: Array<{ row: DefectRow; refs: Defe
     });
     for (const c of chunked(codes, 500)) tx.insert(defectCodes).values(c).run();
   }
-  if (inserts.some((p) => !p.row.ref)) {
-    tx.run(sql`update defects set ref = 'DF-' || printf('%06d', id) where ref like 'TMP-%'`);
-  }
+  // Rows without a ref are numbered DF-YY-NNNNN by report year, after every ref of the batch is stored.
+  assignDefectRefs(
+    tx,
+    inserts.filter((p) => !p.row.ref).map((p) => ({ id: out[p.i]!.id, reportedAt: p.values.reportedAt })),
+  );
   return out;
 }
 

@@ -294,12 +294,13 @@ describe('the release verification', () => {
       expect((await goOk(d.id, 'closed', tech)).status).toBe('closed');
     }
   });
-  it('the check time may be given, but not in the future nor before the report', async () => {
+  it('the check time may be given, but not in the future nor before the report or the repair', async () => {
     const d = await reach('repaired', 'WLR-2');
     const future = new Date(Date.now() + 3_600_000).toISOString();
     expect((await go(d.id, 'verified', tech, { verification: { ...verification, at: future } })).status).toBe(422);
     expect((await go(d.id, 'verified', tech, { verification: { ...verification, at: '2001-01-01T10:00' } })).status).toBe(422);
-    const at = new Date(Date.parse(d.reportedAt) + 1000).toISOString();
+    // The moment the repair was recorded (the latest step to repaired) is the earliest allowed.
+    const at = (await get(d.id)).timeline.findLast((t: { to: string }) => t.to === 'repaired').at;
     const ok = await goOk(d.id, 'verified', tech, { verification: { ...verification, at } });
     expect(ok.verification.at).toBe(at);
   });

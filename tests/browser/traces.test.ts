@@ -1,4 +1,5 @@
-// Traces as a technician: upload a capture on a defect and see the verdict and the plot; zoom the plot
+// Traces as a technician: upload a capture on a defect (staying on the defect page, typed work kept) and
+// open its verdict and plot; zoom the plot
 // (buttons, drag, wheel, pinch); upload from the Traces page with upload progress; a file the analysis
 // cannot use names its line; the trace page on a 768 px tablet.
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -38,14 +39,32 @@ const healthy = captureToCsv(
 describe('Traces', () => {
   let tracePath = '';
 
-  it('a technician uploads a capture on a defect and sees the verdict and the plot', async () => {
+  it('a technician uploads a capture on a defect, stays on the defect page, and opens the verdict and the plot', async () => {
     const page = h.page;
     const defect = await defectWithoutTraces();
     await open(page, `/defects/${defect.id}`);
+    // Work typed in the diagnosis form and not saved yet is kept through the upload.
+    const notes = page.getByRole('form', { name: 'Diagnosis and repair record' }).getByLabel('Notes');
+    const typed = 'Scope on the FL harness connector, motor running up';
+    const editable = (await notes.count()) > 0;
+    const before = editable ? await notes.inputValue() : '';
+    if (editable) await notes.fill(typed);
     const card = page.getByRole('region', { name: 'Scope traces' });
     await card.getByText('No scope captures on this defect yet.', { exact: false }).waitFor();
     await card.getByLabel('Pulses per revolution').fill('2');
     await card.getByLabel('Capture file', { exact: true }).setInputFiles({ name: 'door-fl-hall.csv', mimeType: 'text/csv', buffer: Buffer.from(healthy) });
+    await card.getByTestId('trace-added').getByText('Healthy', { exact: true }).waitFor();
+    await card.getByTestId('trace-added').getByText('door-fl-hall.csv', { exact: true }).waitFor();
+    expect(new URL(page.url()).pathname).toBe(`/defects/${defect.id}`);
+    if (editable) expect(await notes.inputValue()).toBe(typed);
+    // The new trace is in the card with its verdict; the audit trail says what happened in words.
+    const listed = page.getByRole('list', { name: 'Traces on this defect' });
+    await listed.getByRole('link', { name: 'door-fl-hall.csv' }).waitFor();
+    expect(await listed.innerText()).toMatch(/Healthy/);
+    await page.getByRole('table', { name: /^Changes to .*, newest first$/ }).getByText('Scope trace added').first().waitFor();
+    // Back to the saved text, so that opening the trace does not ask about unsaved changes.
+    if (editable) await notes.fill(before);
+    await card.getByTestId('trace-added').getByRole('link', { name: 'Open the trace' }).click();
     await page.waitForURL(/\/traces\/\d+$/);
     tracePath = new URL(page.url()).pathname;
 

@@ -4,8 +4,9 @@
  */
 import { useRef, type KeyboardEvent } from 'react';
 import { POSITION_LABELS } from '@/components/labels';
+import { DOOR_ORDER } from '@/lib/defects/doors';
 
-const DOORS = ['FL', 'FR', 'SL', 'SR', 'RL', 'RR', 'TG'] as const;
+const DOORS = DOOR_ORDER;
 const PLACE: Record<string, string> = {
   FL: 'col-start-1 row-start-1',
   FR: 'col-start-3 row-start-1',
@@ -70,15 +71,16 @@ export function DoorPicker({ value, onChange, labelledBy, counts, invalid, descr
             type="button"
             role="radio"
             aria-checked={on}
-            aria-label={`${POSITION_LABELS[p]} (${p})${c?.total ? `, ${c.total} earlier defects` : ''}`}
+            aria-label={`${POSITION_LABELS[p]} (${p})${c?.total ? `, ${c.total} earlier defect${c.total === 1 ? '' : 's'}` : ''}`}
             tabIndex={p === focusable ? 0 : -1}
             onClick={() => onChange(p)}
             onKeyDown={(e) => move(e, p)}
             className={[
               PLACE[p],
               'flex min-h-14 flex-col items-start justify-center rounded-md border px-2.5 py-1.5 text-left text-sm transition-colors',
-              on ? 'border-estuary-700 bg-estuary-700 text-white' : 'border-ink-300 bg-white text-ink-800 hover:border-estuary-500 hover:bg-estuary-50',
-              invalid && !value ? 'border-brick-600' : '',
+              on
+                ? 'border-estuary-700 bg-estuary-700 text-white'
+                : `${invalid && !value ? 'border-brick-600' : 'border-ink-300'} bg-white text-ink-800 hover:border-estuary-500 hover:bg-estuary-50`,
             ].join(' ')}
           >
             <span className="flex w-full items-baseline justify-between gap-2">

@@ -65,7 +65,7 @@ export const ACTION_LABELS: Record<string, string> = {
   delete: 'Deleted',
   'photo:add': 'Photo added',
   'photo:remove': 'Photo removed',
-  'trace:add': 'Trace added',
+  'trace:add': 'Scope trace added',
 };
 
 /** System actors in words. */

@@ -88,7 +88,7 @@ function Gallery({ initial, role, userId, timeZone }: Props) {
                 <label htmlFor={`${uid}-caption`} className="field-label">
                   Caption <span className="font-normal text-ink-500">(optional, for the next photo)</span>
                 </label>
-                <input id={`${uid}-caption`} disabled={!hydrated} className="input" maxLength={200} placeholder="e.g. corroded encoder board, membrane torn at the lower edge" value={caption} onChange={(e) => setCaption(e.target.value)} />
+                <input id={`${uid}-caption`} disabled={!hydrated} className="input" maxLength={200} placeholder="e.g. corroded encoder board" value={caption} onChange={(e) => setCaption(e.target.value)} />
               </div>
               <div className="flex flex-wrap gap-2">
                 <label className="btn-primary cursor-pointer focus-within:ring-2 focus-within:ring-estuary-300">
@@ -116,7 +116,7 @@ function Gallery({ initial, role, userId, timeZone }: Props) {
               <ul className="mt-2 space-y-1 text-sm" role={outcomes.some((o) => !o.ok) ? 'alert' : 'status'} data-testid="upload-outcomes">
                 {outcomes.map((o, i) => (
                   <li key={`${o.name}-${i}`} className={o.ok ? 'text-moss-700' : 'text-brick-700'}>
-                    <span className="font-semibold">{o.name}</span>: {o.message}
+                    <span className="font-semibold wrap-anywhere">{o.name}</span>: {o.message}
                   </li>
                 ))}
               </ul>

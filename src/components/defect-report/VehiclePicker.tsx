@@ -4,6 +4,7 @@
  */
 import { useEffect, useId, useState } from 'react';
 import { useVehicleSearch, type VehicleOption } from './queries';
+import { INPUT } from '@/components/defect-fields/CountedField';
 
 type Props = {
   value: VehicleOption | null;
@@ -61,7 +62,7 @@ export function VehiclePicker({ value, onChange, inputId, error }: Props) {
     <div className="relative">
       <input
         id={inputId}
-        className="input"
+        className={INPUT}
         role="combobox"
         aria-expanded={open && items.length > 0}
         aria-controls={listId}
@@ -70,7 +71,7 @@ export function VehiclePicker({ value, onChange, inputId, error }: Props) {
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? `${inputId}-error` : `${inputId}-hint`}
         autoComplete="off"
-        placeholder="Type a VIN, fleet number or registration"
+        placeholder="VIN, fleet number or registration"
         value={text}
         onChange={(e) => {
           setText(e.target.value);

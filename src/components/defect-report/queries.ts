@@ -16,6 +16,8 @@ export type VehicleOption = {
   model: string | null;
   depotCode: string;
   status: string;
+  /** Build month, YYYY-MM: a defect cannot be reported before it. */
+  buildMonth: string;
 };
 
 /** One earlier defect of the chosen vehicle. */

@@ -1,6 +1,7 @@
 /**
  * The audit trail of a defect (island): every change, who made it and when, field by field with old → new,
- * kept current as the person works on the page (it reads the shared defect record).
+ * kept current as the person works on the page (it reads the shared defect record). A status step is one
+ * row with its reason (src/lib/defects/audit-rows.ts); people and records referred to by id are named.
  */
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useIslandQueryClient } from '@/components/defect-workflow/island-client';
@@ -8,6 +9,8 @@ import type { DefectRecord } from '@/lib/contracts/defects';
 import { MOISTURE_LABELS, POSITION_LABELS, ROOT_CAUSE_LABELS, STATUS_LABELS } from '@/components/labels';
 import { formatInstant, formatMinutes, formatMoneyMinor } from '@/components/defects/format';
 import { ACTION_LABELS, CONDITION_LABELS, FIELD_LABELS, WHO_LABELS } from '@/components/defect-fields/labels';
+import { VERDICT_LABELS } from '@/components/traces/labels';
+import { collapseAuditRows } from '@/lib/defects/audit-rows';
 import { useDefect } from './queries';
 
 type Props = { initial: DefectRecord; timeZone: string | null };
@@ -29,8 +32,18 @@ export function auditValue(field: string | null, v: string | null, timeZone: str
   return short(v);
 }
 
+/** The stored note of a trace upload ("healthy (door-fl.csv)") in words: "Healthy · door-fl.csv". */
+export function traceNote(v: string | null): string {
+  if (!v) return '–';
+  const m = /^([a-z_]+) \((.*)\)$/.exec(v);
+  if (!m) return short(v);
+  const verdict = VERDICT_LABELS[m[1] as keyof typeof VERDICT_LABELS] ?? m[1];
+  return `${verdict} · ${m[2]}`;
+}
+
 function Trail({ initial, timeZone }: Props) {
   const { data: r } = useDefect(initial);
+  const rows = collapseAuditRows(r.audit);
   return (
     <section className="card" aria-labelledby="h-audit">
       <div className="flex flex-wrap items-baseline justify-between gap-2 border-b border-ink-200 px-4 py-3">
@@ -49,7 +62,7 @@ function Trail({ initial, timeZone }: Props) {
             </tr>
           </thead>
           <tbody>
-            {r.audit.map((a) => (
+            {rows.map((a) => (
               <tr key={a.id}>
                 <td className="whitespace-nowrap">{formatInstant(a.at, timeZone)}</td>
                 <td>{a.userName ?? WHO_LABELS[a.who] ?? a.who}</td>
@@ -58,16 +71,19 @@ function Trail({ initial, timeZone }: Props) {
                   {a.field && a.action !== 'transition' && <span className="text-ink-600"> · {FIELD_LABELS[a.field] ?? a.field}</span>}
                   {a.field === 'reason' && <span className="text-ink-600"> · reason</span>}
                 </td>
-                <td className="text-sm">
-                  {a.field && a.field !== 'reason' ? (
+                <td className="text-sm wrap-anywhere">
+                  {a.action === 'trace:add' ? (
+                    <span className="text-ink-700">{traceNote(a.newValue)}</span>
+                  ) : a.field && a.field !== 'reason' ? (
                     <span>
                       <span className="text-ink-500" title={a.oldValue ?? undefined}>
-                        {auditValue(a.field, a.oldValue, timeZone)}
+                        {a.oldLabel ?? auditValue(a.field, a.oldValue, timeZone)}
                       </span>{' '}
                       <span aria-label="changed to">→</span>{' '}
                       <span className="text-ink-900" title={a.newValue ?? undefined}>
-                        {auditValue(a.field, a.newValue, timeZone)}
+                        {a.newLabel ?? auditValue(a.field, a.newValue, timeZone)}
                       </span>
+                      {a.reason && <span className="mt-0.5 block text-ink-600">“{a.reason}”</span>}
                     </span>
                   ) : (
                     <span className="text-ink-600" title={a.newValue ?? undefined}>

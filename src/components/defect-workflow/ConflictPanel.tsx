@@ -3,7 +3,7 @@
  * value saved now ("theirs") beside the person's own ("yours") and a choice per field. Nothing is overwritten
  * until the person re-applies.
  */
-import { useMemo, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type Ref } from 'react';
 import { defaultChoices, type Choices, type FieldDiff } from '@/lib/defects/record-diff';
 import type { DefectRecord } from '@/lib/contracts/defects';
 import { formatInstant } from '@/components/defects/format';
@@ -18,6 +18,9 @@ type Props<K extends string> = {
   onDiscard: () => void;
   busy?: boolean;
   timeZone: string | null;
+  /** Scroll the panel into view and focus it when it appears (after the person pressed Save). */
+  bringIntoView?: boolean;
+  ref?: Ref<HTMLElement | null>;
 };
 
 /** Who last changed the record, from its audit trail. */
@@ -27,13 +30,34 @@ function lastChange(r: DefectRecord, timeZone: string | null): string {
 }
 
 /** The field-by-field conflict view. */
-export function ConflictPanel<K extends string>({ conflict, display, onApply, onDiscard, busy, timeZone }: Props<K>) {
+export function ConflictPanel<K extends string>({ conflict, display, onApply, onDiscard, busy, timeZone, bringIntoView, ref }: Props<K>) {
   const initial = useMemo(() => defaultChoices(conflict.diffs), [conflict]);
   const [choices, setChoices] = useState<Choices<K>>(initial);
   const name = (f: string) => FIELD_LABELS[f] ?? f;
+  const titleId = useId();
+  const own = useRef<HTMLElement | null>(null);
+  // The Save button is at the bottom of a long form: the panel appears above the fold, so bring it to the
+  // person (and their screen reader) instead of leaving them at a greyed-out button.
+  useEffect(() => {
+    if (!bringIntoView || !own.current) return;
+    own.current.scrollIntoView({ block: 'start' });
+    own.current.focus({ preventScroll: true });
+  }, [bringIntoView, conflict]);
+  const setRef = (el: HTMLElement | null) => {
+    own.current = el;
+    if (typeof ref === 'function') ref(el);
+    else if (ref) (ref as { current: HTMLElement | null }).current = el;
+  };
   return (
-    <section role="alert" aria-labelledby="conflict-title" className="rounded-md border border-amber-600 bg-amber-50 p-3 text-sm text-ink-800">
-      <h3 id="conflict-title" className="font-bold text-amber-800">
+    <section
+      ref={setRef}
+      tabIndex={-1}
+      role="alert"
+      aria-labelledby={titleId}
+      data-testid="conflict-panel"
+      className="scroll-mt-4 rounded-md border border-amber-600 bg-amber-50 p-3 text-sm text-ink-800 outline-none focus-visible:ring-2 focus-visible:ring-amber-600"
+    >
+      <h3 id={titleId} className="font-bold text-amber-800">
         {conflict.kind === 'stale' ? 'Not saved: this defect was changed while you were editing' : 'This defect was changed while you were editing'}
       </h3>
       <p className="mt-1 text-ink-700">
@@ -58,8 +82,8 @@ export function ConflictPanel<K extends string>({ conflict, display, onApply, on
                     {name(d.field)}
                     {d.conflict && <> <span className="badge-amber ml-1">both changed</span></>}
                   </th>
-                  <td className={d.changedByThem ? 'font-semibold' : 'text-ink-500'}>{display(d.field, d.theirs)}</td>
-                  <td className={d.changedByMe ? 'font-semibold' : 'text-ink-500'}>{display(d.field, d.mine)}</td>
+                  <td className={`wrap-anywhere ${d.changedByThem ? 'font-semibold' : 'text-ink-500'}`}>{display(d.field, d.theirs)}</td>
+                  <td className={`wrap-anywhere ${d.changedByMe ? 'font-semibold' : 'text-ink-500'}`}>{display(d.field, d.mine)}</td>
                   <td>
                     <fieldset className="flex flex-wrap gap-x-3">
                       <legend className="sr-only">Keep for {name(d.field)}</legend>

@@ -2,9 +2,11 @@
  * The diagnosis and repair record of a defect (island): moisture found, the condition of membrane, seal,
  * drain holes and connector, root cause, action, notes, parts and labour. Technicians fill it in on the
  * tablet while the defect is open; saving sends only the changed fields with the version they started from,
- * and a change made meanwhile by someone else is shown field by field instead of being overwritten.
+ * and a change made meanwhile by someone else is shown field by field instead of being overwritten (the
+ * panel is brought into view and focused, and the Save button says why nothing was saved). Unsaved edits
+ * are guarded against leaving the page, and a lifecycle step saves them first (../defect-fields/unsaved.ts).
  */
-import { useCallback, useId, useState } from 'react';
+import { useCallback, useId, useRef, useState } from 'react';
 import { QueryClientProvider, useQueryClient } from '@tanstack/react-query';
 import { useFieldArray, useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -14,6 +16,7 @@ import {
   CONDITION_FIELDS,
   CONDITION_VALUES,
   DiagnosisFormSchema,
+  TEXT_LIMITS,
   moneyText,
   parseMoneyText,
   type DefectRecord,
@@ -31,6 +34,8 @@ import { defectKey, staleRecord, useDefect, useSaveDefect } from './queries';
 import { useVersionedForm } from './use-versioned-form';
 import { useHydrated } from '@/components/defect-fields/use-hydrated';
 import { ConflictPanel } from './ConflictPanel';
+import { CountedField, INPUT } from '@/components/defect-fields/CountedField';
+import { useUnsavedChanges, type FlushResult } from '@/components/defect-fields/unsaved';
 
 type PartRow = { partNumber: string; description: string; quantity: string; unitCost: string };
 type Values = {
@@ -124,7 +129,7 @@ function Row({ label, value }: { label: string; value: string }) {
   return (
     <>
       <dt>{label}</dt>
-      <dd className={value === '–' ? 'text-ink-500' : 'whitespace-pre-line'}>{value === '–' ? 'Not recorded' : value}</dd>
+      <dd className={value === '–' ? 'text-ink-500' : 'whitespace-pre-line wrap-anywhere'}>{value === '–' ? 'Not recorded' : value}</dd>
     </>
   );
 }
@@ -188,14 +193,15 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
   // defaultChecked/defaultValue would fight it.
   const [d] = useState(() => fromRecord(record));
 
+  /** Save the changed fields; true when saved (or nothing to save), false when refused or stale. */
   const submit = useCallback(
-    async (out: DiagnosisFormOutput) => {
+    async (out: DiagnosisFormOutput): Promise<boolean> => {
       setFormError(null);
       setNote(null);
       const changed = vf.changed();
       if (changed.length === 0) {
         setNote('Nothing changed since the last save.');
-        return;
+        return true;
       }
       const patch: Record<string, unknown> = { version: vf.baseVersion() };
       for (const f of changed) patch[f] = out[f as keyof DiagnosisFormOutput] ?? null;
@@ -203,19 +209,46 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
         const r = await save.mutateAsync(patch);
         vf.saved(r);
         setNote(`Saved at ${formatInstant(r.updatedAt, timeZone).split(', ')[1] ?? ''}.`);
+        return true;
       } catch (err) {
         const current = staleRecord(err);
         if (current) {
           vf.onStale(current);
           qc.setQueryData(defectKey(current.id), current);
-          return;
+          return false;
         }
         setFormError(applyServerIssues(err, setError, FIELDS as unknown as string[]));
+        return false;
       }
     },
     [vf, save, qc, setError, timeZone],
   );
-  const onSubmit = handleSubmit(submit);
+  const onSubmit = handleSubmit(async (out) => {
+    await submit(out);
+  });
+
+  // A lifecycle step saves these edits first: validate (the first field to fix gets the focus), then save.
+  const flush = useCallback(
+    () =>
+      new Promise<FlushResult>((resolve) => {
+        if (vf.conflict) return resolve('failed');
+        if (vf.changed().length === 0) return resolve('clean');
+        void handleSubmit(
+          async (out) => resolve((await submit(out)) ? 'saved' : 'failed'),
+          () => resolve('failed'),
+        )();
+      }),
+    [vf, handleSubmit, submit],
+  );
+  useUnsavedChanges(`diagnosis-${record.id}`, 'the diagnosis and repair record', dirty || !!vf.conflict, {
+    flush,
+    pending: { action: (watched.action ?? '').trim() || null, rootCause: watched.rootCause || null },
+  });
+  const panelRef = useRef<HTMLElement | null>(null);
+  const showPanel = () => {
+    panelRef.current?.scrollIntoView({ block: 'start' });
+    panelRef.current?.focus({ preventScroll: true });
+  };
 
   const rate = record.labourRateMinorPerHour;
   const partsTotal = (watched.parts ?? []).reduce((s, p) => {
@@ -230,9 +263,11 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
     <form onSubmit={onSubmit} noValidate className="mt-4 space-y-5" aria-label="Diagnosis and repair record">
       {vf.conflict && (
         <ConflictPanel
+          ref={panelRef}
           conflict={vf.conflict}
           display={display}
           timeZone={timeZone}
+          bringIntoView={vf.conflict.kind === 'stale'}
           busy={save.isPending}
           onDiscard={vf.discard}
           onApply={(choices) => {
@@ -264,7 +299,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
       <div className="grid gap-4 sm:grid-cols-2">
         {CONDITION_FIELDS.map((f) => (
           <FormField key={f} id={id(f)} label={CONDITION_FIELD_LABELS[f]} error={e[f]?.message}>
-            <select className="input" defaultValue={d[f]} {...fieldAria(id(f), e[f]?.message)} {...register(f)}>
+            <select className={INPUT} defaultValue={d[f]} {...fieldAria(id(f), e[f]?.message)} {...register(f)}>
               <option value="">Not checked</option>
               {CONDITION_VALUES[f].map((v) => (
                 <option key={v} value={v}>
@@ -277,7 +312,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
       </div>
 
       <FormField id={id('rootCause')} label="Root cause" error={e.rootCause?.message} hint="Needed to close the defect.">
-        <select className="input sm:max-w-xs" defaultValue={d.rootCause} {...fieldAria(id('rootCause'), e.rootCause?.message, true)} {...register('rootCause')}>
+        <select className={`${INPUT} sm:max-w-xs`} defaultValue={d.rootCause} {...fieldAria(id('rootCause'), e.rootCause?.message, true)} {...register('rootCause')}>
           <option value="">Not found yet</option>
           {Object.entries(ROOT_CAUSE_LABELS).map(([v, l]) => (
             <option key={v} value={v}>
@@ -286,12 +321,12 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
           ))}
         </select>
       </FormField>
-      <FormField id={id('action')} label="Action (what was done)" error={e.action?.message} hint="Needed to mark the defect repaired.">
-        <textarea rows={2} className="input" defaultValue={d.action} {...fieldAria(id('action'), e.action?.message, true)} {...register('action')} />
-      </FormField>
-      <FormField id={id('notes')} label="Notes" error={e.notes?.message}>
-        <textarea rows={3} className="input" defaultValue={d.notes} {...fieldAria(id('notes'), e.notes?.message)} {...register('notes')} />
-      </FormField>
+      <CountedField id={id('action')} label="Action (what was done)" error={e.action?.message} hint="Needed to mark the defect repaired." length={(watched.action ?? '').trim().length} max={TEXT_LIMITS.action}>
+        <textarea rows={2} className={INPUT} defaultValue={d.action} {...fieldAria(id('action'), e.action?.message, true)} {...register('action')} />
+      </CountedField>
+      <CountedField id={id('notes')} label="Notes" error={e.notes?.message} length={(watched.notes ?? '').trim().length} max={TEXT_LIMITS.notes}>
+        <textarea rows={3} className={INPUT} defaultValue={d.notes} {...fieldAria(id('notes'), e.notes?.message)} {...register('notes')} />
+      </CountedField>
 
       <fieldset className="rounded-md border border-ink-200 px-3 pt-2 pb-3 sm:px-4">
         <legend className="px-1 text-sm font-semibold text-ink-700">Parts and labour</legend>
@@ -301,16 +336,16 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
             return (
               <div key={field.id} className="grid grid-cols-[1fr_4.5rem] gap-2 border-b border-ink-100 pb-3 sm:grid-cols-[9rem_1fr_4.5rem_6.5rem_auto] sm:items-start" data-testid="part-line">
                 <FormField id={id(`p${i}-pn`)} label="Part number" error={pe?.partNumber?.message} className="col-span-2 sm:col-span-1">
-                  <input className="input mono" autoComplete="off" defaultValue={field.partNumber} {...fieldAria(id(`p${i}-pn`), pe?.partNumber?.message)} {...register(`parts.${i}.partNumber`)} />
+                  <input className={`${INPUT} mono`} autoComplete="off" defaultValue={field.partNumber} {...fieldAria(id(`p${i}-pn`), pe?.partNumber?.message)} {...register(`parts.${i}.partNumber`)} />
                 </FormField>
                 <FormField id={id(`p${i}-d`)} label="Description" error={pe?.description?.message} className="col-span-2 sm:col-span-1">
-                  <input className="input" defaultValue={field.description} {...fieldAria(id(`p${i}-d`), pe?.description?.message)} {...register(`parts.${i}.description`)} />
+                  <input className={INPUT} defaultValue={field.description} {...fieldAria(id(`p${i}-d`), pe?.description?.message)} {...register(`parts.${i}.description`)} />
                 </FormField>
                 <FormField id={id(`p${i}-q`)} label="Qty" error={pe?.quantity?.message}>
-                  <input className="input tabular-nums" inputMode="numeric" defaultValue={field.quantity} {...fieldAria(id(`p${i}-q`), pe?.quantity?.message)} {...register(`parts.${i}.quantity`)} />
+                  <input className={`${INPUT} tabular-nums`} inputMode="numeric" defaultValue={field.quantity} {...fieldAria(id(`p${i}-q`), pe?.quantity?.message)} {...register(`parts.${i}.quantity`)} />
                 </FormField>
                 <FormField id={id(`p${i}-c`)} label="Unit cost" error={pe?.unitCost?.message}>
-                  <input className="input tabular-nums" inputMode="decimal" placeholder="0.00" defaultValue={field.unitCost} {...fieldAria(id(`p${i}-c`), pe?.unitCost?.message)} {...register(`parts.${i}.unitCost`)} />
+                  <input className={`${INPUT} tabular-nums`} inputMode="decimal" placeholder="0.00" defaultValue={field.unitCost} {...fieldAria(id(`p${i}-c`), pe?.unitCost?.message)} {...register(`parts.${i}.unitCost`)} />
                 </FormField>
                 <button type="button" className="btn-ghost self-end text-brick-700" aria-label={`Remove part line ${i + 1}`} onClick={() => parts.remove(i)}>
                   <Trash2 size={18} aria-hidden="true" />
@@ -324,7 +359,7 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
           </button>
           <div className="grid gap-4 sm:grid-cols-[10rem_1fr] sm:items-end">
             <FormField id={id('labourMinutes')} label="Labour, minutes" error={e.labourMinutes?.message}>
-              <input className="input tabular-nums" inputMode="numeric" defaultValue={d.labourMinutes} {...fieldAria(id('labourMinutes'), e.labourMinutes?.message)} {...register('labourMinutes')} />
+              <input className={`${INPUT} tabular-nums`} inputMode="numeric" defaultValue={d.labourMinutes} {...fieldAria(id('labourMinutes'), e.labourMinutes?.message)} {...register('labourMinutes')} />
             </FormField>
             <p className="text-sm text-ink-600" aria-live="polite">
               Parts <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal)}</span>
@@ -342,10 +377,19 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
       </fieldset>
 
       </fieldset>
-      <div className="flex flex-wrap items-center gap-3">
+      {/* NOTE: mt-5 here, not space-y on the form: the fieldset above has m-0, which cancels space-y's margin. */}
+      <div className="mt-5 flex flex-wrap items-center gap-3">
         <button type="submit" className="btn-primary" disabled={!hydrated || save.isPending || !!vf.conflict}>
           {save.isPending ? 'Saving…' : 'Save diagnosis and repair'}
         </button>
+        {vf.conflict && (
+          <span className="flex flex-wrap items-center gap-x-2 text-sm font-semibold text-amber-800" role="status" data-testid="save-conflict-note">
+            {vf.conflict.kind === 'stale' ? 'Not saved: someone changed this defect while you were editing.' : 'Someone changed this defect while you were editing.'}
+            <button type="button" className="btn-ghost text-estuary-700" onClick={showPanel}>
+              Compare the changes
+            </button>
+          </span>
+        )}
         {dirty && !vf.conflict && (
           <>
             <span className="text-sm font-semibold text-amber-800">Unsaved changes</span>

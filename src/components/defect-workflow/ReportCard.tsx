@@ -1,18 +1,21 @@
 /**
  * What was reported (island): the symptom, the fault codes decoded, odometer, who reported it and when, door
  * and module type — with an edit mode for people who may change the record (version-checked like the
- * diagnosis form, with the same field-by-field conflict view).
+ * diagnosis form, with the same field-by-field conflict view, the same unsaved-changes guard, and saved
+ * first by a lifecycle step).
  */
-import { useId, useState } from 'react';
+import { useCallback, useId, useState } from 'react';
 import { QueryClientProvider, useQueryClient } from '@tanstack/react-query';
 import { Controller, useForm, useWatch, type Resolver } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { Pencil } from 'lucide-react';
+import { parseDtc } from '@/lib/dtc/dtc';
+import { dtcWords } from '@/lib/defects/dtc-entry';
 import { useIslandQueryClient } from '@/components/defect-workflow/island-client';
-import { DefectCreateSchema, TEXT_LIMITS, type DefectRecord } from '@/lib/contracts/defects';
+import { DefectCreateSchema, FormOdometerField, FormSymptomField, TEXT_LIMITS, type DefectRecord } from '@/lib/contracts/defects';
 import { canEditRecord, type WorkflowRole } from '@/lib/defects/transitions';
-import { POSITION_LABELS } from '@/components/labels';
+import { FUNCTION_LABELS, POSITION_LABELS } from '@/components/labels';
 import { formatInstant } from '@/components/defects/format';
 import { applyServerIssues, fieldAria, FormError, FormField } from '@/components/ui/FormField';
 import { DoorPicker } from '@/components/defect-fields/DoorPicker';
@@ -21,13 +24,16 @@ import { defectKey, staleRecord, useDefect, useSaveDefect } from './queries';
 import { useVersionedForm } from './use-versioned-form';
 import { ConflictPanel } from './ConflictPanel';
 import { useHydrated } from '@/components/defect-fields/use-hydrated';
+import { CountedField, INPUT } from '@/components/defect-fields/CountedField';
+import { useUnsavedChanges, type FlushResult } from '@/components/defect-fields/unsaved';
 
 type Values = { symptom: string; dtcs: string; odometerKm: string; reporterName: string; position: string; moduleCode: string };
 const FIELDS = ['symptom', 'dtcs', 'odometerKm', 'reporterName', 'position', 'moduleCode'] as const;
 type Field = (typeof FIELDS)[number];
 
-const ReportEditSchema = DefectCreateSchema.pick({ position: true, moduleCode: true, dtcs: true, odometerKm: true, reporterName: true }).extend({
-  symptom: z.string().trim().min(3, 'Say what is wrong (at least a few words)').max(TEXT_LIMITS.symptom, `At most ${TEXT_LIMITS.symptom} characters`),
+const ReportEditSchema = DefectCreateSchema.pick({ position: true, moduleCode: true, dtcs: true, reporterName: true }).extend({
+  symptom: FormSymptomField,
+  odometerKm: FormOdometerField,
 });
 type Output = z.output<typeof ReportEditSchema>;
 
@@ -78,14 +84,14 @@ function Report({ initial, role, timeZone, modules }: Props) {
 function ReportView({ r, timeZone }: { r: DefectRecord; timeZone: string | null }) {
   return (
     <>
-      <p className="mb-3 text-[17px] text-ink-900" data-testid="symptom">
+      <p className="mb-3 text-[17px] wrap-anywhere text-ink-900" data-testid="symptom">
         {r.symptom ?? <span className="text-ink-500">No symptom written down.</span>}
       </p>
       <dl className="dl-grid">
         <dt>Reported</dt>
         <dd>
           {formatInstant(r.reportedAt, timeZone)}
-          {(r.reporterName ?? r.reportedBy) && <span className="text-ink-600"> by {r.reporterName ?? r.reportedBy}</span>}
+          {(r.reporterName ?? r.reportedBy) && <span className="wrap-anywhere text-ink-600"> by {r.reporterName ?? r.reportedBy}</span>}
           {r.reporterName && r.reportedBy && r.reporterName !== r.reportedBy && <span className="text-ink-500"> (entered by {r.reportedBy})</span>}
         </dd>
         <dt>Odometer</dt>
@@ -108,20 +114,23 @@ function CodesTable({ r }: { r: DefectRecord }) {
             <thead>
               <tr>
                 <th scope="col">Code</th>
-                <th scope="col">System</th>
-                <th scope="col">Defined by</th>
-                <th scope="col">Meaning</th>
+                <th scope="col">What it is</th>
+                <th scope="col">Failure type</th>
               </tr>
             </thead>
             <tbody>
-              {r.codes.map((c) => (
-                <tr key={c.display}>
-                  <td className="mono font-semibold whitespace-nowrap">{c.display}</td>
-                  <td className="capitalize">{c.system ?? '–'}</td>
-                  <td>{c.scope === 'manufacturer' ? 'Vehicle maker' : c.scope === 'generic' ? 'SAE (generic)' : '–'}</td>
-                  <td>{c.description}</td>
-                </tr>
-              ))}
+              {r.codes.map((c) => {
+                // Decoded once, in three plain parts: the system and who defines the code, then the failure type.
+                const p = parseDtc(c.display);
+                const w = p.ok ? dtcWords(p) : null;
+                return (
+                  <tr key={c.display}>
+                    <td className="mono font-semibold whitespace-nowrap">{c.display}</td>
+                    <td>{w ? `${w.system}, ${w.definedBy}` : c.description}</td>
+                    <td>{w?.failure ? w.failure.replace(/^Failure type /, '') : <span className="text-ink-500">none given</span>}</td>
+                  </tr>
+                );
+              })}
             </tbody>
           </table>
         </div>
@@ -139,31 +148,59 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
   const { register, control, handleSubmit, setError, formState } = form;
   const vf = useVersionedForm<Values, Field>({ record: r, fields: FIELDS, fromRecord, form });
   const [formError, setFormError] = useState<string | null>(null);
-  const dtcText = useWatch({ control, name: 'dtcs' });
+  const [dtcText, symptom] = useWatch({ control, name: ['dtcs', 'symptom'] });
+  const watched = useWatch({ control }) as Values;
+  const dirty = vf.changed(watched as unknown as Record<Field, unknown>).length > 0;
   const e = formState.errors;
 
-  const onSubmit = handleSubmit(async (out) => {
-    setFormError(null);
-    const changed = vf.changed();
-    if (changed.length === 0) return onDone();
-    const patch: Record<string, unknown> = { version: vf.baseVersion() };
-    for (const f of changed) patch[f] = out[f] ?? null;
-    try {
-      const saved = await save.mutateAsync(patch);
-      vf.saved(saved);
-      // The door or module type are shown outside this card (header, door map): show them fresh.
-      if (changed.includes('position') || changed.includes('moduleCode')) window.location.reload();
-      else onDone();
-    } catch (err) {
-      const current = staleRecord(err);
-      if (current) {
-        vf.onStale(current);
-        qc.setQueryData(defectKey(current.id), current);
-        return;
+  /** Save the changed fields; true when saved (or nothing to save). */
+  const submit = useCallback(
+    async (out: Output, fromStep = false): Promise<boolean> => {
+      setFormError(null);
+      const changed = vf.changed();
+      if (changed.length === 0) {
+        onDone();
+        return true;
       }
-      setFormError(applyServerIssues(err, setError, FIELDS as unknown as string[]));
-    }
+      const patch: Record<string, unknown> = { version: vf.baseVersion() };
+      for (const f of changed) patch[f] = out[f] ?? null;
+      try {
+        const saved = await save.mutateAsync(patch);
+        vf.saved(saved);
+        // The door or module type are shown in the page header (server-rendered): show them fresh — unless a
+        // step is saving these edits first, which a reload would cut short (the cards update by themselves).
+        if (!fromStep && (changed.includes('position') || changed.includes('moduleCode'))) window.location.reload();
+        else onDone();
+        return true;
+      } catch (err) {
+        const current = staleRecord(err);
+        if (current) {
+          vf.onStale(current);
+          qc.setQueryData(defectKey(current.id), current);
+          return false;
+        }
+        setFormError(applyServerIssues(err, setError, FIELDS as unknown as string[]));
+        return false;
+      }
+    },
+    [vf, save, qc, setError, onDone],
+  );
+  const onSubmit = handleSubmit(async (out) => {
+    await submit(out);
   });
+  const flush = useCallback(
+    () =>
+      new Promise<FlushResult>((resolve) => {
+        if (vf.conflict) return resolve('failed');
+        if (vf.changed().length === 0) return resolve('clean');
+        void handleSubmit(
+          async (out) => resolve((await submit(out, true)) ? 'saved' : 'failed'),
+          () => resolve('failed'),
+        )();
+      }),
+    [vf, handleSubmit, submit],
+  );
+  useUnsavedChanges(`report-${r.id}`, 'the report', dirty || !!vf.conflict, { flush });
   const byFunction = new Map<string, ModuleOption[]>();
   for (const m of modules) byFunction.set(m.function, [...(byFunction.get(m.function) ?? []), m]);
 
@@ -174,6 +211,7 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
           conflict={vf.conflict}
           display={display}
           timeZone={timeZone}
+          bringIntoView={vf.conflict.kind === 'stale'}
           busy={save.isPending}
           onDiscard={vf.discard}
           onApply={(choices) => {
@@ -182,19 +220,33 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
         />
       )}
       <FormError message={formError} />
-      <FormField id={id('symptom')} label="Symptom" required error={e.symptom?.message}>
-        <textarea rows={2} className="input" {...fieldAria(id('symptom'), e.symptom?.message)} {...register('symptom')} />
-      </FormField>
-      <FormField id={id('dtcs')} label="Fault codes" error={e.dtcs?.message} hint="SAE J2012 form, separated by spaces: B1A21 or B1A21-29.">
-        <input className="input mono uppercase" autoComplete="off" {...fieldAria(id('dtcs'), e.dtcs?.message, true)} {...register('dtcs')} />
-      </FormField>
-      <DtcDecoded text={dtcText ?? ''} />
+      <CountedField id={id('symptom')} label="Symptom" required error={e.symptom?.message} length={(symptom ?? '').trim().length} max={TEXT_LIMITS.symptom}>
+        <textarea rows={2} className={INPUT} {...fieldAria(id('symptom'), e.symptom?.message)} {...register('symptom')} />
+      </CountedField>
+      <div>
+        <label htmlFor={id('dtcs')} className="field-label">
+          Fault codes
+        </label>
+        <input
+          id={id('dtcs')}
+          className={`${INPUT} mono uppercase`}
+          autoComplete="off"
+          spellCheck={false}
+          aria-invalid={e.dtcs ? true : undefined}
+          aria-describedby={`${id('dtcs')}-hint ${id('dtcs')}-decoded`}
+          {...register('dtcs')}
+        />
+        <p id={`${id('dtcs')}-hint`} className={`mt-1 text-xs ${e.dtcs ? 'font-semibold text-brick-700' : 'text-ink-500'}`}>
+          {e.dtcs ? 'Fix the code marked below, or remove it' : 'SAE J2012 form, separated by spaces: B1A21 or B1A21-29.'}
+        </p>
+        <DtcDecoded text={dtcText ?? ''} id={`${id('dtcs')}-decoded`} />
+      </div>
       <div className="grid gap-4 sm:grid-cols-2">
         <FormField id={id('odometerKm')} label="Odometer, km" error={e.odometerKm?.message}>
-          <input className="input tabular-nums" inputMode="numeric" {...fieldAria(id('odometerKm'), e.odometerKm?.message)} {...register('odometerKm')} />
+          <input className={`${INPUT} tabular-nums`} inputMode="numeric" autoComplete="off" {...fieldAria(id('odometerKm'), e.odometerKm?.message)} {...register('odometerKm')} />
         </FormField>
         <FormField id={id('reporterName')} label="Reported by" error={e.reporterName?.message}>
-          <input className="input" {...fieldAria(id('reporterName'), e.reporterName?.message)} {...register('reporterName')} />
+          <input className={INPUT} {...fieldAria(id('reporterName'), e.reporterName?.message)} {...register('reporterName')} />
         </FormField>
       </div>
       <div>
@@ -204,9 +256,9 @@ function ReportForm({ r, timeZone, modules, onDone }: { r: DefectRecord; timeZon
         <Controller control={control} name="position" render={({ field }) => <DoorPicker value={field.value} onChange={field.onChange} labelledBy={id('door')} />} />
       </div>
       <FormField id={id('moduleCode')} label="Module type" error={e.moduleCode?.message}>
-        <select className="input" {...fieldAria(id('moduleCode'), e.moduleCode?.message)} {...register('moduleCode')}>
+        <select className={INPUT} {...fieldAria(id('moduleCode'), e.moduleCode?.message)} {...register('moduleCode')}>
           {[...byFunction.entries()].map(([fn, ms]) => (
-            <optgroup key={fn} label={fn.replace(/_/g, ' ')}>
+            <optgroup key={fn} label={FUNCTION_LABELS[fn] ?? fn}>
               {ms.map((m) => (
                 <option key={m.code} value={m.code}>
                   {m.code} · {m.name}

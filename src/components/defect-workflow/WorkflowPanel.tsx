@@ -3,10 +3,13 @@
  * step as the obvious button, the release verification, repeat links, and the dialogs for verifying, closing,
  * cancelling and re-opening. Offers only the steps the lifecycle engine allows this person; the server checks
  * again and its refusal (for example closing a window lifter without the verification) is shown here.
+ * A step first saves the edits still pending in the page's forms (a technician who typed the action and
+ * pressed "Mark repaired" expects both; docs/decisions/014), and the latest reason given for a re-open,
+ * cancel or restore is shown at the top, where the person working the defect looks first.
  */
 import { useId, useMemo, useState, type ReactNode } from 'react';
-import { QueryClientProvider } from '@tanstack/react-query';
-import { Check, CircleDot } from 'lucide-react';
+import { QueryClientProvider, useQueryClient } from '@tanstack/react-query';
+import { Check, CircleDot, MessageSquareWarning } from 'lucide-react';
 import { useIslandQueryClient } from '@/components/defect-workflow/island-client';
 import { ApiError } from '@/lib/client/api-client';
 import type { DefectRecord } from '@/lib/contracts/defects';
@@ -15,8 +18,12 @@ import { FUNCTION_LABELS, ROOT_CAUSE_LABELS, STATUS_BADGE, STATUS_LABELS } from 
 import { formatInstant, formatInstantDate } from '@/components/defects/format';
 import { Dialog } from '@/components/ui/Dialog';
 import { SafetyCautions } from '@/components/defect-fields/SafetyCautions';
-import { staleRecord, useDefect, useStep, type StepInput } from './queries';
+import { defectKey, staleRecord, useDefect, useStep, type StepInput } from './queries';
 import { useHydrated } from '@/components/defect-fields/use-hydrated';
+import { LeavePrompt, listWords } from '@/components/defect-fields/LeavePrompt';
+import { flushUnsaved, useUnsavedSnapshot } from '@/components/defect-fields/unsaved';
+import { checkVerificationTime } from '@/lib/defects/times';
+import { latestReason } from '@/lib/defects/status-reason';
 
 type Props = { initial: DefectRecord; role: WorkflowRole; timeZone: string | null };
 
@@ -45,31 +52,54 @@ function guidance(r: DefectRecord, canWork: boolean, timeZone: string | null): s
   }
 }
 
+/** Words for what a step does, to say it was not done ("Not marked repaired: …"). */
+const NOT_DONE: Record<string, string> = {
+  start_diagnosis: 'Diagnosis not started',
+  await_parts: 'Not set to wait for parts',
+  resume_diagnosis: 'Not moved back to diagnosis',
+  mark_repaired: 'Not marked repaired',
+  reject_repair: 'Not moved back to diagnosis',
+  verify: 'Verification not recorded',
+  close: 'Not closed',
+  reopen_work: 'Not moved back to diagnosis',
+  cancel: 'Not cancelled',
+  reopen: 'Not re-opened',
+  restore: 'Not restored',
+};
+
 function Panel({ initial, role, timeZone }: Props) {
   const { data: r } = useDefect(initial);
+  const qc = useQueryClient();
   const step = useStep(r.id);
   const [alert, setAlert] = useState<string | null>(null);
+  const [saving, setSaving] = useState(false);
   const [dialog, setDialog] = useState<NextStep | null>(null);
   const canWork = role !== 'viewer';
   const hydrated = useHydrated();
+  const unsaved = useUnsavedSnapshot();
+  const pendingAction = typeof unsaved.pending.action === 'string' && unsaved.pending.action.trim() !== '';
+  const pendingRootCause = typeof unsaved.pending.rootCause === 'string' && unsaved.pending.rootCause !== '';
   const steps = useMemo(
     () =>
       nextSteps(r.status, {
         role,
         moduleFunction: r.moduleFunction,
-        hasAction: !!r.action?.trim(),
-        hasRootCause: r.rootCause !== null,
+        // What the forms hold unsaved counts too: the step saves it first.
+        hasAction: !!r.action?.trim() || pendingAction,
+        hasRootCause: r.rootCause !== null || pendingRootCause,
         verification: r.verification ? { reinitialised: r.verification.reinitialised, reversalVerified: r.verification.reversalVerified, byUserId: r.verification.byId, atMs: r.verification.at ? Date.parse(r.verification.at) : null } : null,
         reason: null,
       }),
-    [r, role],
+    [r, role, pendingAction, pendingRootCause],
   );
 
   /** Take a step; returns the error message, or null when it went through. */
   const take = async (input: Omit<StepInput, 'version'>): Promise<string | null> => {
     setAlert(null);
     try {
-      await step.mutateAsync({ ...input, version: r.version });
+      // The newest version in the page's cache: a save of pending edits just before the step moved it on.
+      const version = qc.getQueryData<DefectRecord>(defectKey(r.id))?.version ?? r.version;
+      await step.mutateAsync({ ...input, version });
       return null;
     } catch (e) {
       const current = staleRecord(e);
@@ -80,6 +110,16 @@ function Panel({ initial, role, timeZone }: Props) {
 
   const onStep = async (s: NextStep) => {
     const k = s.rule.key;
+    setAlert(null);
+    if (unsaved.savableLabels.length > 0) {
+      // Save what the person typed before the step, so the step sees it (and nothing typed is lost).
+      setSaving(true);
+      const saved = await flushUnsaved().finally(() => setSaving(false));
+      if (!saved.ok) {
+        setAlert(`${NOT_DONE[k] ?? 'Not done'}: your changes to ${saved.label} could not be saved first. Fix what is marked there (or compare the changes someone else made), then try again.`);
+        return;
+      }
+    }
     if (k === 'close' || k === 'cancel' || k === 'reopen' || k === 'restore' || (k === 'verify' && r.safetyVerificationRequired)) {
       setAlert(null);
       setDialog(s);
@@ -98,9 +138,11 @@ function Panel({ initial, role, timeZone }: Props) {
   const shown = MAIN.filter((s) => s !== 'awaiting_parts' || visited.has(s) || r.status === s);
   const currentIndex = shown.indexOf(r.status as (typeof MAIN)[number]);
   const primary = steps.find((s) => s.rule.forward);
+  const why = latestReason(r.timeline);
 
   return (
     <section className="card" aria-labelledby="h-status" data-testid="workflow-panel">
+      <LeavePrompt />
       <div className="flex flex-wrap items-center gap-x-3 gap-y-2 border-b border-ink-200 px-4 py-3 sm:px-5">
         <h2 id="h-status">Status</h2>
         <span className={`${STATUS_BADGE[r.status] ?? 'badge-neutral'} text-sm`} data-testid="defect-status" aria-live="polite">
@@ -123,10 +165,30 @@ function Panel({ initial, role, timeZone }: Props) {
       </div>
 
       <div className="px-4 py-4 sm:px-5">
+        {why && r.status !== 'cancelled' && (
+          <div className="mb-4 flex items-start gap-2.5 rounded-md border-l-4 border-amber-600 bg-amber-50 px-3 py-2.5 text-[15px] text-ink-800" data-testid="status-reason">
+            <MessageSquareWarning size={18} className="mt-0.5 shrink-0 text-amber-800" aria-hidden="true" />
+            <p className="min-w-0">
+              <span className="font-semibold text-amber-800">
+                {why.kind === 'reopened' ? 'Re-opened' : why.kind === 'restored' ? 'Restored' : 'Cancelled'} {formatInstant(why.at, timeZone)}
+                {why.by ? ` by ${why.by}` : ''}:
+              </span>{' '}
+              <span className="wrap-anywhere">“{why.reason}”</span>
+            </p>
+          </div>
+        )}
         {r.status === 'cancelled' ? (
-          <p className="rounded-md bg-ink-100 px-3 py-2 text-sm text-ink-700">
-            Cancelled{lastAt('cancelled') ? ` on ${formatInstant(lastAt('cancelled')!.at, timeZone)} by ${lastAt('cancelled')!.by ?? 'someone'}` : ''}
-            {r.timeline.at(-1)?.reason ? `: ${r.timeline.at(-1)!.reason}` : '.'}
+          <p className="rounded-md border-l-4 border-ink-400 bg-ink-100 px-3 py-2.5 text-[15px] text-ink-800" data-testid="status-reason">
+            <span className="font-semibold">
+              Cancelled{lastAt('cancelled') ? ` ${formatInstant(lastAt('cancelled')!.at, timeZone)} by ${lastAt('cancelled')!.by ?? 'someone'}` : ''}
+            </span>
+            {why?.reason ? (
+              <>
+                : <span className="wrap-anywhere">“{why.reason}”</span>
+              </>
+            ) : (
+              '.'
+            )}
           </p>
         ) : (
           <ol className="grid gap-2 sm:auto-cols-fr sm:grid-flow-col sm:gap-0" aria-label="Steps">
@@ -160,9 +222,20 @@ function Panel({ initial, role, timeZone }: Props) {
         {steps.length > 0 && (
           <div className="mt-3 flex flex-wrap gap-2" role="group" aria-label="Next steps">
             {steps.map((s) => (
-              <StepButton key={`${s.rule.key}-${s.rule.to}`} s={s} primary={s === primary} busy={step.isPending || !hydrated} onClick={() => void onStep(s)} />
+              <StepButton key={`${s.rule.key}-${s.rule.to}`} s={s} primary={s === primary} busy={step.isPending || saving || !hydrated} onClick={() => void onStep(s)} />
             ))}
           </div>
+        )}
+        {steps.length > 0 && unsaved.savableLabels.length > 0 && (
+          <p className="mt-2 text-sm text-ink-700" data-testid="unsaved-note">
+            {saving ? (
+              `Saving your changes to ${listWords(unsaved.savableLabels)}…`
+            ) : (
+              <>
+                <span className="font-semibold text-amber-800">Unsaved changes to {listWords(unsaved.savableLabels)}.</span> A step saves them first.
+              </>
+            )}
+          </p>
         )}
         {alert && (
           <p role="alert" className="mt-3 rounded-md border border-brick-100 bg-brick-50 px-3 py-2 text-sm text-brick-700" data-testid="step-refusal">
@@ -183,7 +256,7 @@ function Panel({ initial, role, timeZone }: Props) {
                 <li key={`${t.at}-${i}`}>
                   <span className="text-ink-500">{formatInstant(t.at, timeZone)}</span> · {STATUS_LABELS[t.from] ?? t.from} → <span className="font-semibold">{STATUS_LABELS[t.to] ?? t.to}</span>
                   {t.by && <span className="text-ink-600"> · {t.by}</span>}
-                  {t.reason && <span className="block text-ink-600">“{t.reason}”</span>}
+                  {t.reason && <span className="block wrap-anywhere text-ink-600">“{t.reason}”</span>}
                 </li>
               ))}
             </ol>
@@ -321,12 +394,21 @@ type DialogProps = {
   onVerifyFirst?: () => void;
 };
 
-/** A local date-time for <input type="datetime-local"> (the browser's clock and zone). */
-function localNow(): string {
-  const d = new Date();
+/** An instant as a local date-time for <input type="datetime-local"> (the browser's zone), to the minute. */
+function toLocalInput(ms: number): string {
+  const d = new Date(ms);
   d.setSeconds(0, 0);
   return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
 }
+/** The browser's local date-time now. */
+const localNow = () => toLocalInput(Date.now());
+/** The earliest a verification may be dated: the latest step to repaired (its minute), else the report. */
+function earliestCheck(r: DefectRecord): number {
+  const repaired = [...r.timeline].reverse().find((t) => t.to === 'repaired');
+  return Date.parse(repaired?.at ?? r.reportedAt);
+}
+/** Same allowance for a drifting tablet clock as the server's. */
+const CLOCK_SKEW_MS = 5 * 60_000;
 
 function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: DialogProps) {
   const uid = useId();
@@ -344,6 +426,13 @@ function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: Dial
     setError(null);
     if (needsReason && !reason.trim()) return setError('Say why.');
     if (verifying && !(reinit && reversal)) return setError('Tick both checks once they are done; if the window does not reverse, it is not fixed — use "Fault not cleared".');
+    if (verifying) {
+      const atMs = new Date(at).getTime();
+      if (Number.isNaN(atMs)) return setError('Give the date and time the checks were done.');
+      const repaired = [...r.timeline].reverse().find((t) => t.to === 'repaired');
+      const problem = checkVerificationTime({ atMs, nowMs: Date.now(), reportedAtMs: Date.parse(r.reportedAt), repairedAtMs: repaired ? Date.parse(repaired.at) : null, skewMs: CLOCK_SKEW_MS });
+      if (problem) return setError(problem.code === 'before_repair' ? `${problem.message} The repair was recorded ${formatInstant(repaired!.at, timeZone)}.` : problem.message);
+    }
     const input: Omit<StepInput, 'version'> = { to: s.rule.to };
     if (needsReason) input.reason = reason.trim();
     if (verifying) input.verification = { reinitialised: true, reversalVerified: true, at: new Date(at).toISOString(), note: note.trim() || null };
@@ -352,7 +441,7 @@ function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: Dial
     else onClose();
   };
 
-  const title = verifying ? 'Record the release verification' : key === 'close' ? `Close ${r.ref}` : `${s.rule.label}: ${r.ref}`;
+  const title = verifying ? 'Record the release verification' : key === 'close' ? `Close ${r.ref}` : key === 'cancel' ? `Cancel ${r.ref}?` : `${s.rule.label}: ${r.ref}`;
   let body: ReactNode;
   if (verifying) {
     body = (
@@ -374,7 +463,8 @@ function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: Dial
             <label htmlFor={`${uid}-at`} className="field-label">
               Checked at
             </label>
-            <input id={`${uid}-at`} type="datetime-local" className="input" value={at} max={localNow()} onChange={(e) => setAt(e.target.value)} />
+            <input id={`${uid}-at`} type="datetime-local" className="input" value={at} min={toLocalInput(earliestCheck(r))} max={localNow()} onChange={(e) => setAt(e.target.value)} />
+            <p className="mt-1 text-xs text-ink-500">Not before the repair was recorded, not in the future.</p>
           </div>
           <div>
             <label htmlFor={`${uid}-note`} className="field-label">
@@ -426,11 +516,12 @@ function StepDialog({ r, s, timeZone, onClose, take, busy, onVerifyFirst }: Dial
       size="md"
       footer={
         <>
+          {/* The labels never change with an error; "Keep the defect" so that two buttons never both say "Cancel". */}
           <button type="button" className="btn-secondary" onClick={onClose}>
-            {error ? 'Back' : 'Cancel'}
+            {key === 'cancel' ? 'Keep the defect' : 'Cancel'}
           </button>
           <button type="button" className={key === 'cancel' ? 'btn-danger' : 'btn-primary'} disabled={busy} onClick={() => void submit()}>
-            {busy ? 'Working…' : verifying ? 'Record verification' : key === 'close' ? 'Close defect' : s.rule.label}
+            {busy ? 'Working…' : verifying ? 'Record verification' : key === 'close' ? 'Close defect' : key === 'cancel' ? 'Cancel the defect' : s.rule.label}
           </button>
         </>
       }

@@ -3,9 +3,11 @@
  * shows at once in the others), and its writes: PATCH (version-checked edits), lifecycle steps, photo upload
  * and removal. A 409 puts the current record into the cache, so every form can rebase onto it.
  */
-import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { ApiError, apiFetch } from '@/lib/client/api-client';
+import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { ApiError, apiFetch, toQuery } from '@/lib/client/api-client';
 import type { DefectPhoto, DefectRecord, StaleWriteBody } from '@/lib/contracts/defects';
+import type { ListResponse } from '@/lib/contracts/lists';
+import type { DefectRow } from '@/components/defects/queries';
 
 /** The query key of one defect. */
 export const defectKey = (id: number) => ['defect', id] as const;
@@ -84,5 +86,19 @@ export function useDeletePhoto(id: number) {
   return useMutation({
     mutationFn: (photoId: number) => apiFetch<void>(`/api/photos/${photoId}`, { method: 'DELETE' }),
     onSettled: () => qc.invalidateQueries({ queryKey: defectKey(id) }),
+  });
+}
+
+/**
+ * The defects of the defect's vehicle (door map, door history), fetched again whenever the defect's version
+ * moves on (a step, an edit), so those cards never show the status of before. Seeded with the page's own list.
+ */
+export function useVehicleDefectRows(record: Pick<DefectRecord, 'vin' | 'version'>, initial: { version: number; items: DefectRow[] }) {
+  return useQuery({
+    queryKey: ['defects', 'vehicle', record.vin, 'at-version', record.version],
+    queryFn: ({ signal }) => apiFetch<ListResponse<DefectRow>>(`/api/defects${toQuery({ vin: record.vin, pageSize: 200, sort: '-reportedAt' })}`, { signal }).then((r) => r.items),
+    initialData: record.version === initial.version ? initial.items : undefined,
+    placeholderData: keepPreviousData,
+    staleTime: Infinity,
   });
 }

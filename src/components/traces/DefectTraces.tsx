@@ -1,11 +1,15 @@
 /**
  * The defect page's traces island: the scope captures stored on this defect with their verdicts, and (for
- * people who may add traces in the defect's depot) the upload zone that stores a new one on the defect and
- * opens its result.
+ * people who may add traces in the defect's depot) the upload zone that stores a new one on the defect. The
+ * person stays on the defect page (work typed in its forms is kept): the new trace appears in the list with
+ * its verdict and a link to open it. Leaving the page while a capture uploads asks first.
  */
 import { useState } from 'react';
-import { QueryClientProvider } from '@tanstack/react-query';
-import { Activity, Plus } from 'lucide-react';
+import { QueryClientProvider, useQueryClient } from '@tanstack/react-query';
+import { Activity, Check, Plus } from 'lucide-react';
+import type { TraceRecord } from '@/lib/contracts/traces';
+import { defectKey } from '@/components/defect-workflow/queries';
+import { useUnsavedChanges } from '@/components/defect-fields/unsaved';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { formatInstant } from '@/components/defects/format';
 import { DIRECTION_LABELS, verdictBadge, verdictLabel } from './labels';
@@ -33,7 +37,19 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
   const list = useTraces({ defectId: String(defectId), pageSize: '50' });
   const items = list.data?.items ?? [];
   const [adding, setAdding] = useState(false);
-  const showZone = canUpload && (adding || (list.data !== undefined && items.length === 0));
+  const [added, setAdded] = useState<{ trace: TraceRecord; name: string } | null>(null);
+  const [uploading, setUploading] = useState(false);
+  const qc = useQueryClient();
+  useUnsavedChanges(`trace-upload-${defectId}`, 'the scope capture being uploaded', uploading);
+  const showZone = canUpload && (adding || (list.data !== undefined && items.length === 0 && !added));
+
+  const onUploaded = (trace: TraceRecord, file: File) => {
+    setAdded({ trace, name: trace.fileName ?? file.name });
+    setAdding(false);
+    // The list shows it; the defect's audit trail shows the upload.
+    void qc.invalidateQueries({ queryKey: ['traces', 'list'] });
+    void qc.invalidateQueries({ queryKey: defectKey(defectId) });
+  };
 
   return (
     <div className="space-y-3">
@@ -48,10 +64,21 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
           No scope captures on this defect yet.{canUpload ? ' Back-probe both hall-sensor signals at the door harness connector with the motor running, save the capture as CSV and add it here.' : ''}
         </p>
       )}
+      {added && (
+        <p className="flex flex-wrap items-center gap-x-2 gap-y-1 rounded-md border border-moss-600 bg-moss-50 px-3 py-2 text-sm text-moss-700" role="status" data-testid="trace-added">
+          <Check size={16} aria-hidden="true" />
+          <span>
+            Added <span className="font-semibold wrap-anywhere">{added.name}</span>: <span className="font-semibold">{verdictLabel(added.trace.verdict)}</span>.
+          </span>
+          <a className="link" href={`/traces/${encodeURIComponent(added.trace.id)}`}>
+            Open the trace
+          </a>
+        </p>
+      )}
       {items.length > 0 && (
         <ul className="divide-y divide-ink-100 rounded-md border border-ink-200" aria-label="Traces on this defect">
           {items.map((t) => (
-            <li key={t.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2.5">
+            <li key={t.id} className={`flex flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2.5 ${added?.trace.id === t.id ? 'bg-moss-50/60' : ''}`}>
               <span className={verdictBadge(t.verdict)}>{verdictLabel(t.verdict)}</span>
               <a className="link min-w-0 flex-1 break-all" href={`/traces/${encodeURIComponent(t.id)}`}>
                 {t.fileName ?? `Capture ${t.id}`}
@@ -78,7 +105,7 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
           <h3 className="mb-2 flex items-center gap-2 text-[15px]">
             <Activity size={16} className="text-estuary-700" aria-hidden="true" /> Add a scope capture to this defect
           </h3>
-          <UploadZone defectId={defectId} compact />
+          <UploadZone defectId={defectId} compact onUploaded={onUploaded} onBusyChange={setUploading} />
         </div>
       )}
     </div>

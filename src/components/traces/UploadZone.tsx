@@ -1,12 +1,14 @@
 /**
  * Drop or tap to choose a scope capture; it is uploaded at once (with progress) together with the optional
  * pulses per revolution and sensor supply, measured by the server, and the browser goes straight to the
- * trace page with the verdict. Used on the Traces page and, with a defect id, on the defect page.
+ * trace page with the verdict. Used on the Traces page and, with a defect id, on the defect page — where
+ * `onUploaded` keeps the person on the page (unsaved diagnosis work stays), and the card lists the result.
  */
 import { useId, useRef, useState } from 'react';
 import { useDropzone, type FileRejection } from 'react-dropzone';
 import { FileText, Upload } from 'lucide-react';
 import type { ApiError } from '@/lib/client/api-client';
+import type { TraceRecord } from '@/lib/contracts/traces';
 import { MAX_CAPTURE_UPLOAD_BYTES, uploadTrace, type TraceUploadPhase } from './upload';
 import { formatBytes } from './format';
 
@@ -15,6 +17,10 @@ type Props = {
   defectId?: number;
   /** Fewer words (the defect page card). */
   compact?: boolean;
+  /** Stay on the page and hand the stored trace over, instead of opening the trace page. */
+  onUploaded?: (trace: TraceRecord, file: File) => void;
+  /** Hears whether an upload is under way (to hold the page while it is). */
+  onBusyChange?: (busy: boolean) => void;
 };
 
 type State =
@@ -32,7 +38,7 @@ function optionalNumber(text: string): number | undefined {
 }
 
 /** The upload zone with its two options. */
-export function UploadZone({ defectId, compact = false }: Props) {
+export function UploadZone({ defectId, compact = false, onUploaded, onBusyChange }: Props) {
   const uid = useId();
   const [pulses, setPulses] = useState('');
   const [supply, setSupply] = useState('');
@@ -49,18 +55,25 @@ export function UploadZone({ defectId, compact = false }: Props) {
       return;
     }
     setRun({ state: 'sending', file, phase: { phase: 'uploading', percent: 0, loaded: 0, total: file.size } });
+    onBusyChange?.(true);
     const { promise, abort } = uploadTrace(file, { defectId, pulsesPerRev: pulsesValue, supplyV: supplyValue }, (phase) =>
       setRun((r) => (r.state === 'sending' ? { ...r, phase } : r)),
     );
     abortRef.current = abort;
     promise
       .then((trace) => {
+        if (onUploaded) {
+          setRun({ state: 'idle' });
+          onUploaded(trace, file);
+          return;
+        }
         setRun({ state: 'done', file, id: trace.id });
         window.location.assign(`/traces/${encodeURIComponent(trace.id)}`);
       })
       .catch((e: ApiError) => setRun({ state: 'failed', file, message: e.message }))
       .finally(() => {
         abortRef.current = null;
+        onBusyChange?.(false);
       });
   };
 

@@ -6,6 +6,9 @@ import {
   DefectPatchSchema,
   DiagnosisFormSchema,
   DtcsField,
+  FormOdometerField,
+  parseOdometerText,
+  reportFormSchema,
   moneyText,
   parseMoneyText,
   PartFormSchema,
@@ -112,5 +115,34 @@ describe('transitions and the verification', () => {
     expect(VerificationInputSchema.safeParse({ reinitialised: 'yes', reversalVerified: true }).success).toBe(false);
     expect(TransitionRequestSchema.safeParse({ to: 'closed' }).success).toBe(false);
     expect(TransitionRequestSchema.parse({ to: 'cancelled', version: 2, reason: '  Duplicate  ' })).toEqual({ to: 'cancelled', version: 2, reason: 'Duplicate' });
+  });
+});
+
+describe('the forms: odometer with thousands separators, reported time against the build month', () => {
+  it.each([
+    ['84512', 84512],
+    ['84,512', 84512],
+    ['84 512', 84512],
+    ['84.512', 84512],
+    ["1'204'512", 1204512],
+    ['1,204,512 km', 1204512],
+    ['', null],
+  ])('odometer %j is %j', (text, km) => {
+    expect(parseOdometerText(text)).toBe(km);
+    expect(FormOdometerField.parse(text)).toBe(km);
+  });
+  it.each(['84,51', '84,512.5', '8,4512', '84,512 512', '1,204.512', 'about 80k', '-5'])('odometer %j is refused', (text) => {
+    expect(parseOdometerText(text)).toBeUndefined();
+    const r = FormOdometerField.safeParse(text);
+    expect(r.success).toBe(false);
+    if (!r.success) expect(r.error.issues[0]!.message).toBe('Odometer must be a whole number of km, such as 84512 or 84,512');
+  });
+  it('refuses a report dated before the chosen vehicle was built, naming the month', () => {
+    const base = { vin: 'SXPAB1CD5NK000001', position: 'FL', moduleCode: 'LCK-1', symptom: 'Lock does not engage', dtcs: '', odometerKm: '', reporterName: '' };
+    const r = reportFormSchema({ buildMonth: '2022-01' }).safeParse({ ...base, reportedAt: '2019-01-01T10:00' });
+    expect(r.success).toBe(false);
+    if (!r.success) expect(r.error.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['reportedAt', 'Reported at is before the vehicle was built (Jan 2022): check the date']]);
+    expect(reportFormSchema({ buildMonth: '2022-01' }).safeParse({ ...base, reportedAt: '2022-01-01T00:00' }).success).toBe(true);
+    expect(reportFormSchema().safeParse({ ...base, reportedAt: '2019-01-01T10:00' }).success).toBe(true);
   });
 });

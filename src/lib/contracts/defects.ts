@@ -9,6 +9,8 @@ import { z } from 'zod';
 import { parseDtcList } from '../dtc/dtc';
 import { parseInstant } from '../dates/dates';
 import { DEFECT_STATUS_VALUES } from '../defects/transitions';
+import { DOOR_ORDER } from '../defects/doors';
+import { beforeBuildMessage, localBeforeBuild } from '../defects/times';
 import { MOISTURE_VALUES, POSITION_VALUES, ROOT_CAUSE_VALUES } from '../imports/rows';
 
 /** The enumerations the schemas use, re-exported for the forms. */
@@ -103,7 +105,7 @@ export const DefectCreateSchema = z.object({
   vin: z.string('Choose the vehicle').trim().min(1, 'Choose the vehicle').max(32, 'A VIN has 17 characters'),
   position: z.preprocess(
     (v) => (typeof v === 'string' ? v.trim().toUpperCase() : v),
-    z.enum(POSITION_VALUES, `Door must be one of ${POSITION_VALUES.join(', ')}`),
+    z.enum(POSITION_VALUES, `Door must be one of ${DOOR_ORDER.join(', ')}`),
   ),
   moduleCode: z
     .string('Choose the module type')
@@ -126,16 +128,62 @@ export const DefectCreateSchema = z.object({
 /** A parsed report. */
 export type DefectCreate = z.output<typeof DefectCreateSchema>;
 
-/** The report form: the same fields, with a symptom required (a person reporting always says what is wrong). */
-export const DefectReportFormSchema = DefectCreateSchema.pick({ vin: true, position: true, moduleCode: true, dtcs: true, odometerKm: true, reporterName: true }).extend({
-  symptom: z.string().trim().min(3, 'Say what is wrong (at least a few words)').max(TEXT_LIMITS.symptom, `At most ${TEXT_LIMITS.symptom} characters`),
-  // The form's date-time is the browser's local time (<input type="datetime-local">); sent as an ISO instant.
-  reportedAt: z
-    .string()
-    .refine((s) => !Number.isNaN(new Date(s).getTime()), 'Give the date and time it was reported')
-    .refine((s) => new Date(s).getTime() <= Date.now() + 5 * 60_000, 'Reported at cannot be in the future')
-    .transform((s) => new Date(s).toISOString()),
-});
+/**
+ * An odometer reading as a person types it: digits, optionally grouped in thousands with commas, spaces, points
+ * or apostrophes ("84,512", "84 512", "84.512"), as the app itself shows it. Null when empty, undefined when it
+ * is not a whole number of km.
+ */
+export function parseOdometerText(text: string): number | null | undefined {
+  const t = text.trim().replace(/\s*km$/i, '');
+  if (t === '') return null;
+  if (/^\d+$/.test(t)) return Number(t);
+  // Thousands groups: one separator kind throughout, groups of exactly three digits.
+  const m = /^\d{1,3}(([,.'\u2019 \u00a0\u202f])\d{3})(\2\d{3})*$/.exec(t);
+  return m ? Number(t.replace(/[^\d]/g, '')) : undefined;
+}
+
+/** The odometer field of the forms: thousands separators allowed, whole km up to 5,000,000. */
+export const FormOdometerField = z.preprocess(
+  (v) => {
+    if (typeof v !== 'string') return v;
+    const n = parseOdometerText(v);
+    return n === undefined ? v : n;
+  },
+  z
+    .number('Odometer must be a whole number of km, such as 84512 or 84,512')
+    .int('Odometer must be a whole number of km, such as 84512 or 84,512')
+    .min(0, 'Odometer must be at least 0')
+    .max(5_000_000, 'Odometer must be at most 5,000,000')
+    .nullable(),
+);
+
+/** The symptom as the forms require it (a person reporting always says what is wrong). */
+export const FormSymptomField = z
+  .string()
+  .trim()
+  .min(3, 'Say what is wrong (at least a few words)')
+  .max(TEXT_LIMITS.symptom, `At most ${TEXT_LIMITS.symptom} characters`);
+
+/**
+ * The report form's schema. Its date-time is the browser's local time (<input type="datetime-local">), sent
+ * as an ISO instant; with the chosen vehicle's build month ("YYYY-MM") a date before it is refused, as the
+ * server does.
+ */
+export function reportFormSchema(opts: { buildMonth?: string | null } = {}) {
+  return DefectCreateSchema.pick({ vin: true, position: true, moduleCode: true, dtcs: true, reporterName: true }).extend({
+    symptom: FormSymptomField,
+    odometerKm: FormOdometerField,
+    reportedAt: z
+      .string()
+      .refine((s) => !Number.isNaN(new Date(s).getTime()), 'Give the date and time it was reported')
+      .refine((s) => new Date(s).getTime() <= Date.now() + 5 * 60_000, 'Reported at cannot be in the future')
+      .refine((s) => !opts.buildMonth || !localBeforeBuild(s, opts.buildMonth), { message: beforeBuildMessage(opts.buildMonth ?? '') })
+      .transform((s) => new Date(s).toISOString()),
+  });
+}
+
+/** The report form (without a vehicle's build month). */
+export const DefectReportFormSchema = reportFormSchema();
 /** What the report form sends. */
 export type DefectReportForm = z.output<typeof DefectReportFormSchema>;
 
@@ -284,6 +332,9 @@ export type AuditRow = {
   field: string | null;
   oldValue: string | null;
   newValue: string | null;
+  /** The record an id value refers to, in words (a person's name, a module code, a ref); null otherwise. */
+  oldLabel: string | null;
+  newLabel: string | null;
 };
 
 /** The release verification as recorded. */
