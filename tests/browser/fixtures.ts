@@ -193,6 +193,16 @@ export function useBrowser(viewport?: Viewport): BrowserHarness {
 /** Go to a path of the app. */
 export async function open(page: Page, pathname: string): Promise<void> {
   await page.goto(`${baseUrl()}${pathname}`);
+  await waitForIslands(page);
+}
+
+/**
+ * Wait until every island the page loads at once (`client:load`) has hydrated: Astro drops the island's `ssr`
+ * attribute then. A click before that lands on server-rendered HTML without handlers and is lost, which made tests
+ * flaky on a busy machine. Islands that hydrate when visible are not waited for.
+ */
+export async function waitForIslands(page: Page): Promise<void> {
+  await page.waitForFunction(() => [...document.querySelectorAll('astro-island[client="load"]')].every((el) => !el.hasAttribute('ssr')));
 }
 
 /** The path and query of the page's current URL. */

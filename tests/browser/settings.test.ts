@@ -61,6 +61,6 @@ describe('Settings', () => {
     expect(await status.textContent()).toContain(`would change the repeat link of ${expected.toLocaleString('en-GB')} defects`);
     expect((db.prepare("select count(*) as n from settings where key = 'repeat_window_days'").get() as { n: number }).n).toBe(0);
     expect(wouldChange(90)).toBe(0);
-    await page.getByText('No changes yet: the defaults are in force.').waitFor();
+    await page.getByText('No changes made here yet.').waitFor();
   });
 });
