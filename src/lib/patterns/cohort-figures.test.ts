@@ -7,7 +7,8 @@ import { PatternsInputError } from './types';
 // 8 vehicles, 32 vehicle-years and 12 failures.
 
 describe('createCohortFigures: a build range taken as given', () => {
-  const figures = createCohortFigures(handFleet(), '2024-01-01');
+  const calc = createCohortFigures(handFleet(), '2024-01-01');
+  const figures = calc.figures;
 
   it('the range the report finds gives the same figures: R poisson.test(c(12, 3), c(4e5, 3.5e5)) (REFERENCES §3 example 4, (b))', () => {
     const c = figures({ moduleCode: 'WLR-2', band: 'high', buildFrom: '2019-05', buildTo: '2019-06' })!;
@@ -45,6 +46,13 @@ describe('createCohortFigures: a build range taken as given', () => {
     const c = figures({ moduleCode: 'WLR-2', band: 'high', buildFrom: '2019-01', buildTo: '2019-12' })!;
     expect(c).toMatchObject({ vehicles: 22, failures: 15, rateRatio: null, ciHigh: null, rateRatioPValue: 1, restFailures: 0 });
     expect(c.ratioToFleet).toBeCloseTo(1, 12);
+  });
+
+  it('the module baseline over the fleet given: 15 failures over 60 vehicle-years', () => {
+    const b = calc.baseline('WLR-2')!;
+    expect(b).toMatchObject({ moduleCode: 'WLR-2', failures: 15, vehicles: 22, diagnosedFailures: 13, moistureFailures: 8 });
+    expect(b.ratePerVehicleYear).toBeCloseTo(0.25, 12);
+    expect(calc.baseline('XX-9')).toBeNull();
   });
 
   it('unknown module: null; a range that ends before it starts or an unknown band: an input error', () => {

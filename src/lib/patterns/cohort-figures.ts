@@ -8,9 +8,9 @@
 import { formatMonthIndex, toMonthIndex } from './calendar';
 import { bandName, indexFleet, parseAsOf, type FleetIndex, type ModuleFailures } from './fleet-index';
 import { TREND_ALPHA } from './rules';
-import { compareRatesExact, fisherExactGreater } from './stats';
+import { compareRatesExact, computeGarwoodInterval, fisherExactGreater } from './stats';
 import { computeLaplaceTrend, computeMilHdbkTrend, fitPowerLawNhpp, type TrendSystem } from './trend';
-import { EXPOSURE_BANDS, PatternsInputError, type CohortFigures, type CohortMonth, type ExposureBand, type ModuleTrend, type PatternsInput } from './types';
+import { EXPOSURE_BANDS, PatternsInputError, type CohortFigures, type CohortMonth, type ExposureBand, type ModuleBaseline, type ModuleTrend, type PatternsInput, type PatternsModule } from './types';
 
 /** Build-month bins of one exposure band (observed vehicles only). */
 export interface BandBins {
@@ -261,6 +261,29 @@ export function countDiagnosed(failures: ModuleFailures): { diagnosed: number; w
   return { diagnosed, wet };
 }
 
+/** The baseline of one module type over the whole fleet given: rate per vehicle-year with Garwood limits, moisture, trend. */
+export function computeModuleBaseline(fleet: FleetIndex, module: PatternsModule, failures: ModuleFailures, totals: { vehicleYears: number; observedVehicles: number }): ModuleBaseline {
+  const count = failures.failureIds.length;
+  const { diagnosed, wet } = countDiagnosed(failures);
+  const garwood = computeGarwoodInterval(count);
+  const t = totals.vehicleYears;
+  return {
+    moduleId: module.id,
+    moduleCode: module.code,
+    moduleFunction: module.function,
+    vehicles: totals.observedVehicles,
+    vehicleYears: t,
+    failures: count,
+    ratePerVehicleYear: t > 0 ? count / t : 0,
+    rateCiLow: t > 0 ? garwood.lower / t : 0,
+    rateCiHigh: t > 0 ? garwood.upper / t : 0,
+    diagnosedFailures: diagnosed,
+    moistureFailures: wet,
+    moistureShare: diagnosed > 0 ? wet / diagnosed : null,
+    trend: computeModuleTrend(fleet, failures, totals.observedVehicles),
+  };
+}
+
 /** A build range of one module type × band to read over a fleet. */
 export interface CohortQuery {
   moduleCode: string;
@@ -270,50 +293,66 @@ export interface CohortQuery {
   buildTo: string;
 }
 
+/** Figures of build ranges, and module baselines, over one indexed fleet. */
+export interface CohortFiguresCalculator {
+  /** The figures of a range; null when the module type is not in the catalogue. */
+  figures(q: CohortQuery): CohortFigures | null;
+  /** The module's baseline over this fleet; null when the module type is not in the catalogue. */
+  baseline(moduleCode: string): ModuleBaseline | null;
+}
+
 /**
  * A calculator of cohort figures over one fleet as of a day (the fleet is indexed once). For each query: the
  * figures of the band's observed vehicles built in the range, with the expectation at this fleet's rate for the
- * module and the rate ratio against the rest of this fleet; null when the module type is not in the catalogue.
- * Nothing is searched: the range is taken as given, so there is no scan p-value and no q-value.
- * @throws PatternsInputError on malformed input, asOf or range
+ * module and the rate ratio against the rest of this fleet. Nothing is searched: the range is taken as given, so
+ * there is no scan p-value and no q-value.
+ * @throws PatternsInputError on malformed input or asOf; `figures` on a malformed range or band
  */
-export function createCohortFigures(input: PatternsInput, asOf: string): (q: CohortQuery) => CohortFigures | null {
+export function createCohortFigures(input: PatternsInput, asOf: string): CohortFiguresCalculator {
   const fleet = indexFleet(input, parseAsOf(asOf));
-  const { vehicleYears: totalVehicleYears } = fleetExposure(fleet);
+  const totals = fleetExposure(fleet);
+  const totalVehicleYears = totals.vehicleYears;
   const bins = EXPOSURE_BANDS.map((_, b) => buildBandBins(fleet, b));
-  return (q) => {
-    const mi = input.modules.findIndex((m) => m.code === q.moduleCode);
-    if (mi < 0) return null;
-    const band = EXPOSURE_BANDS.indexOf(q.band);
-    if (band < 0) throw new PatternsInputError(`unknown band ${JSON.stringify(q.band)}`);
-    const from = toMonthIndex(q.buildFrom);
-    const to = toMonthIndex(q.buildTo);
-    if (to < from) throw new PatternsInputError(`build range ${q.buildFrom}..${q.buildTo} ends before it starts`);
-    const module = input.modules[mi]!;
-    const failures = fleet.moduleFailures[mi] as ModuleFailures;
-    const b = bins[band] as BandBins;
-    const { caseCounts, bandFailures } = countBandFailures(b, failures);
-    const { diagnosed, wet } = countDiagnosed(failures);
-    let start = 0;
-    while (start < b.months.length && (b.months[start] as number) < from) start++;
-    let end = b.months.length - 1;
-    while (end >= 0 && (b.months[end] as number) > to) end--;
-    return computeWindowFigures(
-      {
-        fleet,
-        module,
-        failures,
-        bins: b,
-        caseCounts,
-        bandFailures,
-        totalVehicleYears,
-        fleetRate: totalVehicleYears > 0 ? failures.failureIds.length / totalVehicleYears : 0,
-        moduleDiagnosed: diagnosed,
-        moduleWet: wet,
-      },
-      start,
-      end,
-      { buildFrom: q.buildFrom, buildTo: q.buildTo },
-    );
+  const moduleIndex = (code: string) => input.modules.findIndex((m) => m.code === code);
+  return {
+    baseline(code) {
+      const mi = moduleIndex(code);
+      return mi < 0 ? null : computeModuleBaseline(fleet, input.modules[mi]!, fleet.moduleFailures[mi] as ModuleFailures, totals);
+    },
+    figures(q) {
+      const mi = moduleIndex(q.moduleCode);
+      if (mi < 0) return null;
+      const band = EXPOSURE_BANDS.indexOf(q.band);
+      if (band < 0) throw new PatternsInputError(`unknown band ${JSON.stringify(q.band)}`);
+      const from = toMonthIndex(q.buildFrom);
+      const to = toMonthIndex(q.buildTo);
+      if (to < from) throw new PatternsInputError(`build range ${q.buildFrom}..${q.buildTo} ends before it starts`);
+      const module = input.modules[mi]!;
+      const failures = fleet.moduleFailures[mi] as ModuleFailures;
+      const b = bins[band] as BandBins;
+      const { caseCounts, bandFailures } = countBandFailures(b, failures);
+      const { diagnosed, wet } = countDiagnosed(failures);
+      let start = 0;
+      while (start < b.months.length && (b.months[start] as number) < from) start++;
+      let end = b.months.length - 1;
+      while (end >= 0 && (b.months[end] as number) > to) end--;
+      return computeWindowFigures(
+        {
+          fleet,
+          module,
+          failures,
+          bins: b,
+          caseCounts,
+          bandFailures,
+          totalVehicleYears,
+          fleetRate: totalVehicleYears > 0 ? failures.failureIds.length / totalVehicleYears : 0,
+          moduleDiagnosed: diagnosed,
+          moduleWet: wet,
+        },
+        start,
+        end,
+        { buildFrom: q.buildFrom, buildTo: q.buildTo },
+      );
+    },
   };
 }

@@ -4,12 +4,12 @@
  * Benjamini–Hochberg across every cohort tested, moisture evidence and the water-ingress verdict, and trend tests.
  * Formulas, thresholds and rules: docs/patterns-method.md.
  */
-import { buildBandBins, computeModuleTrend, computeWindowFigures, countBandFailures, countDiagnosed, fleetExposure, type BandBins } from './cohort-figures';
+import { buildBandBins, computeModuleBaseline, computeWindowFigures, countBandFailures, fleetExposure, type BandBins } from './cohort-figures';
 import { bandName, indexFleet, parseAsOf, type FleetIndex, type ModuleFailures } from './fleet-index';
 import { deriveSeed } from './rng';
 import { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN } from './rules';
 import { createScanLayout, runPoissonScan, type ScanLayout } from './scan';
-import { adjustBenjaminiHochberg, computeGarwoodInterval } from './stats';
+import { adjustBenjaminiHochberg } from './stats';
 import {
   EXPOSURE_BANDS,
   PatternsInputError,
@@ -79,24 +79,11 @@ export function computePatternsReport(input: PatternsInput, opts: PatternsOption
   input.modules.forEach((module: PatternsModule, mi) => {
     const failures = fleet.moduleFailures[mi] as ModuleFailures;
     const moduleFailureCount = failures.failureIds.length;
-    const fleetRate = totalVehicleYears > 0 ? moduleFailureCount / totalVehicleYears : 0;
-    const { diagnosed: moduleDiagnosed, wet: moduleWet } = countDiagnosed(failures);
-    const garwood = computeGarwoodInterval(moduleFailureCount);
-    modules.push({
-      moduleId: module.id,
-      moduleCode: module.code,
-      moduleFunction: module.function,
-      vehicles: observedVehicles,
-      vehicleYears: totalVehicleYears,
-      failures: moduleFailureCount,
-      ratePerVehicleYear: fleetRate,
-      rateCiLow: totalVehicleYears > 0 ? garwood.lower / totalVehicleYears : 0,
-      rateCiHigh: totalVehicleYears > 0 ? garwood.upper / totalVehicleYears : 0,
-      diagnosedFailures: moduleDiagnosed,
-      moistureFailures: moduleWet,
-      moistureShare: moduleDiagnosed > 0 ? moduleWet / moduleDiagnosed : null,
-      trend: computeModuleTrend(fleet, failures, observedVehicles),
-    });
+    const baseline = computeModuleBaseline(fleet, module, failures, { vehicleYears: totalVehicleYears, observedVehicles });
+    const fleetRate = baseline.ratePerVehicleYear;
+    const moduleDiagnosed = baseline.diagnosedFailures;
+    const moduleWet = baseline.moistureFailures;
+    modules.push(baseline);
     if (moduleFailureCount === 0) return;
 
     for (const { bins, layout } of bands) {
