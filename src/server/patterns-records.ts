@@ -555,6 +555,7 @@ export function getPatternRecord(user: SessionUser, id: number): PatternRecordDe
     cohort: scoped ? depotCohortView(scoped, r) : cohortView(snap.cohort),
     method: snap.method,
     scope: scope === null ? 'all' : 'depots',
+    cohortsTested: scoped ? null : snap.counts.cohortsTested,
     campaignResolvedAt: r.campaignKind && r.status !== 'campaign_planned' ? (lastResolved?.at ?? null) : null,
     vehicleList: members.vehicles,
     defectList: members.defects,

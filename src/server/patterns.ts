@@ -6,7 +6,7 @@ import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
 import { computePatternsReport } from '@/lib/patterns/report';
-import { computeMcfCompare, computeMcfSeries } from '@/lib/patterns/mcf-fleet';
+import { computeMcfCompare, computeMcfSeries, type McfCompareSeries, type McfSeries } from '@/lib/patterns/mcf-fleet';
 import { createCohortFigures, type CohortFiguresCalculator, type CohortQuery } from '@/lib/patterns/cohort-figures';
 import type { CohortFigures, ExposureBand, ModuleBaseline, PatternsInput, PatternsReport } from '@/lib/patterns/types';
 import { parseIsoDate } from '@/lib/dates/dates';
@@ -176,7 +176,13 @@ export type McfCompareQuery = { band: ExposureBand; buildFrom: string; buildTo: 
  * Mean cumulative function series for a module type over the caller's depots; with `compare`, also the curves of
  * that band's vehicles built in the range and of the rest of the band (an addition to the CONTRACT.md body).
  */
-export function getMcf(user: SessionUser, moduleCode: string, asOf: string, byBand: boolean, compare?: McfCompareQuery) {
+export function getMcf(
+  user: SessionUser,
+  moduleCode: string,
+  asOf: string,
+  byBand: boolean,
+  compare?: McfCompareQuery,
+): { series: McfSeries[]; compare?: McfCompareQuery & { series: McfCompareSeries[] } } {
   const code = moduleCode.trim().toUpperCase();
   if (!getDb().select({ id: modules.id }).from(modules).where(eq(modules.code, code)).get()) throw notFound('Module type');
   const base = cached(`mcf|${scopeKey(user)}|${asOf}|${code}|${byBand}`, () =>

@@ -28,7 +28,7 @@ const getRecord = async (token: string, id = recordId) => body<PatternRecordDeta
 const move = (token: string, json: unknown) => call(status, 'POST', `/api/patterns/${recordId}/status`, { token, params: { id: String(recordId) }, json });
 const auditCount = () => (getDb().$client.prepare("select count(*) as n from audit_log where entity = 'pattern' and entity_id = ?").get(String(recordId)) as { n: number }).n;
 const lastAudit = (n: number) =>
-  getDb().$client.prepare("select action, field, old_value as oldValue, new_value as newValue from audit_log where entity = 'pattern' and entity_id = ? order by id desc limit ?").all(String(recordId), n).reverse();
+  (getDb().$client.prepare("select action, field, old_value as oldValue, new_value as newValue from audit_log where entity = 'pattern' and entity_id = ? order by id desc limit ?").all(String(recordId), n) as { action: string; field: string; oldValue: string | null; newValue: string | null }[]).reverse();
 
 beforeAll(async () => {
   loaded = loadGeneratedFleet({
@@ -85,7 +85,7 @@ describe('revising a campaign (C2)', () => {
     expect(auditCount()).toBe(before);
     const ok = await move(manager.token, { status: 'campaign_planned', campaign: { ...same, kind: 'new_membranes' }, note: 'Membranes found torn on the first vans' });
     expect(ok.status).toBe(200);
-    expect(lastAudit(2).map((a: { action: string; field: string }) => [a.action, a.field])).toEqual([
+    expect(lastAudit(2).map((a) => [a.action, a.field])).toEqual([
       ['campaign_revised', 'campaignKind'],
       ['campaign_revised', 'note'],
     ]);

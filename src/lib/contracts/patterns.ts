@@ -225,6 +225,8 @@ export type PatternRecordDetail = PatternRecordSummary & {
   scope: 'all' | 'depots';
   /** When the last campaign was resolved (null while in force or never resolved). */
   campaignResolvedAt: string | null;
+  /** Groups the fleet-wide report tested (false-discovery control ran across them); null for depot figures. */
+  cohortsTested: number | null;
   vehicleList: PatternVehicleRow[];
   defectList: PatternDefectRow[];
   history: PatternHistoryRow[];

@@ -46,3 +46,54 @@ export function yearTicks(maxYears: number): number[] {
   const top = Math.max(1, Math.floor(maxYears + 1e-9));
   return Array.from({ length: top + 1 }, (_, i) => i);
 }
+
+/** One point of a step curve to merge (x in any unit; `y` the curve's value from x on). */
+export interface StepPoint {
+  x: number;
+  y: number;
+  lower: number;
+  upper: number;
+  atRisk: number;
+}
+
+/** A merged row: the x and, for each curve still running there, its value (`${key}`), limits and vehicles at risk. */
+export type MergedRow = { x: number } & Record<string, number | null>;
+
+/**
+ * Merge step curves onto one x axis so that a chart can show every curve's value at any x (one tooltip for all):
+ * each curve's value at x is its last point at or before x, null before its first point and after its last (the
+ * curve ends there). Keys: `${key}`, `${key}Lower`, `${key}Upper`, `${key}AtRisk`. Rows sorted by x.
+ */
+export function mergeStepCurves(curves: readonly { key: string; points: readonly StepPoint[] }[]): MergedRow[] {
+  const xs = [...new Set(curves.flatMap((c) => c.points.map((p) => p.x)))].sort((a, b) => a - b);
+  const cursor = curves.map(() => -1);
+  return xs.map((x) => {
+    const row: MergedRow = { x } as MergedRow;
+    curves.forEach((c, i) => {
+      let k = cursor[i] as number;
+      while (k + 1 < c.points.length && (c.points[k + 1] as StepPoint).x <= x) k++;
+      cursor[i] = k;
+      const last = c.points[c.points.length - 1];
+      const p = k >= 0 && last && x <= last.x ? (c.points[k] as StepPoint) : null;
+      row[c.key] = p ? p.y : null;
+      row[`${c.key}Lower`] = p ? p.lower : null;
+      row[`${c.key}Upper`] = p ? p.upper : null;
+      row[`${c.key}AtRisk`] = p ? p.atRisk : null;
+    });
+    return row;
+  });
+}
+
+/**
+ * Round ticks from 0 to at least `max`: about `count` steps of 1, 2, 2.5 or 5 times a power of ten (so an axis
+ * reads 0, 0.5, 1, 1.5, 2 rather than 0, 0.55, 1.1).
+ */
+export function niceTicks(max: number, count = 4): number[] {
+  if (!(max > 0) || !Number.isFinite(max)) return [0, 1];
+  const raw = max / count;
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = ([1, 2, 2.5, 5, 10].find((m) => m * power >= raw) ?? 10) * power;
+  const n = Math.ceil(max / step - 1e-9);
+  // Round away binary noise (0.1 + 0.2) so the labels read cleanly.
+  return Array.from({ length: n + 1 }, (_, i) => Number((i * step).toPrecision(12)));
+}

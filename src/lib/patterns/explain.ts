@@ -167,7 +167,7 @@ export function explainCohort(c: ExplainCohort, scope: ExplainScope = 'fleet'): 
   const wetter = c.diagnosedFailures > 0 && c.moistureP < WATER_SHARE_ALPHA;
   const waterRule: RuleCheck[] = [
     {
-      label: mine ? 'Flagged by the fleet-wide report' : 'Fails above the fleet rate, beyond chance',
+      label: c.search ? `Fails above ${mine ? "your depots'" : 'the fleet'} rate, beyond chance` : 'Flagged by the fleet-wide report',
       met: c.significant,
       detail: c.significant ? 'yes' : 'no',
       stat: c.search ? `${formatStat('q', c.search.qValue)} (needs < ${FDR_LEVEL})` : 'decided on the whole fleet',
@@ -186,13 +186,15 @@ export function explainCohort(c: ExplainCohort, scope: ExplainScope = 'fleet'): 
     },
   ];
   const unmet = waterRule.filter((r) => !r.met).map((r) => r.label.charAt(0).toLowerCase() + r.label.slice(1));
+  // Without a search of its own (a record's range read over some depots) the verdict is the fleet-wide one.
+  const fleetVerdict = c.search === null;
   const waterVerdict = c.waterIngress
-    ? mine
+    ? fleetVerdict
       ? 'Called water ingress on the whole fleet: most of its diagnosed failures show water, more often than the rest of this module’s failures.'
-      : 'Called water ingress: the group fails far above the fleet rate, most of its diagnosed failures show water, and more often than the rest of this module’s failures.'
+      : `Called water ingress: the group fails far above ${mine ? "your depots'" : 'the fleet'} rate, most of its diagnosed failures show water, and more often than the rest of this module’s failures.`
     : !c.significant
       ? 'Not called water ingress: the group is not flagged, so no verdict on its cause is given.'
-      : mine
+      : fleetVerdict
         ? 'Not called water ingress on the whole fleet — a pattern that fails dry. Look for another cause (mechanical wear, a supplier batch, wiring).'
         : `Not called water ingress — a pattern that fails dry. It does not meet: ${unmet.join('; ')}. Look for another cause (mechanical wear, a supplier batch, wiring).`;
   return { rate, chance, chanceStat, repeats, moisture, moistureStat, waterRule, waterVerdict };

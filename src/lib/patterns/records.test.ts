@@ -7,6 +7,8 @@ import {
   groupPatternHistory,
   isCampaignOverdue,
   formatBuildRange,
+  formatDay,
+  formatMonth,
   matchPatternRecord,
   overlapMonths,
   planPatternSync,
@@ -192,5 +194,16 @@ describe('computePatternChanges over part of the fleet', () => {
   it('says where the new failures are', () => {
     const c = computePatternChanges({ buildFrom: '2022-10', buildTo: '2023-03', failures: 3, significant: true, actedFailures: 0, actedBuildFrom: '2022-10', actedBuildTo: '2023-03', inLatestReport: true }, 'in your depots');
     expect(c.summary).toEqual(['3 new failures in your depots']);
+  });
+});
+
+describe('formatMonth and formatDay', () => {
+  it('one month format: "Sep 2023", days "24 Sep 2023" (UTC day of an instant)', () => {
+    expect(formatMonth('2023-09')).toBe('Sep 2023');
+    expect(formatDay('2023-09-24')).toBe('24 Sep 2023');
+    expect(formatDay('2023-09-24T23:30:00.000Z')).toBe('24 Sep 2023');
+    expect(formatDay('2023-09-24T23:30:00-02:00')).toBe('25 Sep 2023');
+    expect(formatDay(null)).toBe('–');
+    expect(formatDay('soon')).toBe('soon');
   });
 });

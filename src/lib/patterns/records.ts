@@ -150,6 +150,22 @@ export interface PatternChanges {
   summary: string[];
 }
 
+/** A build month `YYYY-MM` in words, "Feb 2023" (the one month format of the Patterns pages and pack). */
+export function formatMonth(m: string): string {
+  return monthWords(m);
+}
+
+/**
+ * A calendar day `YYYY-MM-DD`, or the UTC day of an ISO instant, in words: "24 Sep 2023" (the same month names as
+ * formatMonth, whatever the browser's locale data calls September). Anything else is returned as it is.
+ */
+export function formatDay(s: string | null | undefined): string {
+  if (!s) return '–';
+  const day = /^\d{4}-\d{2}-\d{2}$/.test(s) ? s : /^\d{4}-\d{2}-\d{2}T/.test(s) && !Number.isNaN(Date.parse(s)) ? new Date(s).toISOString().slice(0, 10) : null;
+  if (!day) return s;
+  return `${day.slice(8, 10)} ${monthWords(day.slice(0, 7))}`;
+}
+
 function monthWords(m: string): string {
   const names = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
   const [y, mo] = m.split('-');
