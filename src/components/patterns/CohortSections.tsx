@@ -20,6 +20,8 @@ import { RateChart } from './RateChart';
 
 /** What the shared sections need. */
 export type CohortPageData = {
+  /** What the page is about: a pattern record or a group of the report (names the lists). */
+  noun: 'pattern' | 'group';
   cohort: CohortView;
   baseline: ModuleBaseline | null;
   method: PatternsReport['method'];
@@ -324,7 +326,7 @@ export function FailuresSection({ d, filter, onFilter }: { d: CohortPageData; fi
   return (
     <section className="card" aria-labelledby="h-defects" id="failures">
       <div className="flex flex-wrap items-baseline justify-between gap-2 border-b border-ink-200 px-4 py-3">
-        <h2 id="h-defects">Failures behind this group</h2>
+        <h2 id="h-defects">Failures behind this {d.noun}</h2>
         <span className="text-sm text-ink-500">
           {rows.length} of {formatCount(d.cohort.failures, 'failure')}
           {mine ? ' (your depots)' : ''}, oldest first
@@ -343,7 +345,7 @@ export function FailuresSection({ d, filter, onFilter }: { d: CohortPageData; fi
       {rows.length ? (
         <div className="table-wrap max-h-[32rem]">
           <table className="data-table">
-            <caption className="sr-only">Failures behind this group</caption>
+            <caption className="sr-only">Failures behind this {d.noun}</caption>
             <thead>
               <tr>
                 <th scope="col">Defect</th>
@@ -411,7 +413,7 @@ export function VehiclesSection({ d }: { d: CohortPageData }) {
   return (
     <section className="card" aria-labelledby="h-vehicles">
       <div className="flex flex-wrap items-baseline justify-between gap-2 border-b border-ink-200 px-4 py-3">
-        <h2 id="h-vehicles">Vehicles in the group</h2>
+        <h2 id="h-vehicles">Vehicles in this {d.noun}</h2>
         <span className="text-sm text-ink-500">
           {rows.length} of {formatCount(d.cohort.vehicles, 'vehicle')}
           {d.scope === 'depots' ? ' (your depots)' : ''}, most failures first
@@ -423,7 +425,7 @@ export function VehiclesSection({ d }: { d: CohortPageData }) {
         <>
           <div className="table-wrap max-h-[32rem]">
             <table className="data-table">
-              <caption className="sr-only">Vehicles in the group</caption>
+              <caption className="sr-only">Vehicles in this {d.noun}</caption>
               <thead>
                 <tr>
                   <th scope="col">Vehicle</th>

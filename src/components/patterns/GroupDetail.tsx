@@ -61,6 +61,7 @@ function Group({ moduleCode, band, asOf }: Props) {
   }
   const c = g.cohort;
   const d: CohortPageData = {
+    noun: 'group',
     cohort: c,
     baseline: g.baseline,
     method: g.method,

@@ -94,6 +94,7 @@ function Detail({ id, canWrite }: Props) {
   }
   const c = r.cohort;
   const d: CohortPageData = {
+    noun: 'pattern',
     cohort: c,
     baseline: r.baseline,
     method: r.method,

@@ -126,6 +126,11 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
               ? `As of ${formatDay(report.data.asOf)} · ${formatCount(report.data.counts.cohortsTested, 'group')} tested over ${formatCount(report.data.counts.vehiclesObserved, 'vehicle')} · ${significant} significant, ${water} water ingress`
               : 'Cohorts of door modules that fail far above the fleet rate, and whether water is the reason'}
           </p>
+          <p className="text-sm">
+            <a className="link" href="/patterns/method">
+              How Seepline finds patterns
+            </a>
+          </p>
         </div>
         {canWrite && (
           <div className="flex items-center gap-2 text-sm text-ink-600">

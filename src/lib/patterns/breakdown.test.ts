@@ -35,7 +35,7 @@ describe('computeFailureBreakdown', () => {
     ]);
     expect(b).toMatchObject({ partFaults: 2, otherCauses: 4, undetermined: 2 });
     expect(describeFailureBreakdown(b, label)).toBe(
-      'Of the 8 failures, 2 were faults of the part itself (sensor or mechanical), 4 had another cause (water ingress 2, connector 1, wiring 1) and 2 have no root cause yet.',
+      'Of the 8 failures, 2 were faults of the part itself (sensor or mechanical), 4 had another cause (water ingress 2, connector 1, wiring 1) and 2 have no known root cause.',
     );
   });
 

@@ -35,7 +35,7 @@ export interface FailureBreakdown {
   partFaults: number;
   /** Failures with another recorded root cause (water ingress, connector, wiring, software). */
   otherCauses: number;
-  /** Root cause unknown or not recorded. */
+  /** Root cause recorded as unknown, or not recorded yet. */
   undetermined: number;
 }
 
@@ -71,7 +71,7 @@ export function computeFailureBreakdown(failures: readonly BreakdownFailure[]): 
 
 /**
  * The breakdown in one sentence, e.g. "Of the 53 failures, 5 were faults of the part itself (sensor or mechanical),
- * 45 had another cause (water ingress 35, connector 7, wiring 2, software 1) and 3 have no root cause yet."
+ * 45 had another cause (water ingress 35, connector 7, wiring 2, software 1) and 3 have no known root cause."
  * `label` names a root cause for reading.
  */
 export function describeFailureBreakdown(b: FailureBreakdown, label: (rootCause: string) => string): string {
@@ -82,7 +82,7 @@ export function describeFailureBreakdown(b: FailureBreakdown, label: (rootCause:
     `${n(b.partFaults, 'was a fault', 'were faults')} of the part itself (sensor or mechanical)`,
     `${b.otherCauses} had another cause${others.length ? ` (${others.map((r) => `${label(r.key).toLowerCase()} ${r.count}`).join(', ')})` : ''}`,
   ];
-  if (b.undetermined > 0) parts.push(`${b.undetermined} ${b.undetermined === 1 ? 'has' : 'have'} no root cause yet`);
+  if (b.undetermined > 0) parts.push(`${b.undetermined} ${b.undetermined === 1 ? 'has' : 'have'} no known root cause`);
   const last = parts.pop()!;
   return `Of the ${n(b.total, 'failure', 'failures')}, ${parts.join(', ')} and ${last}.`;
 }
