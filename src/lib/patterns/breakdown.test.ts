@@ -44,6 +44,8 @@ describe('computeFailureBreakdown', () => {
     expect(none).toEqual({ total: 0, byRootCause: [], byMoisture: [], partFaults: 0, otherCauses: 0, undetermined: 0 });
     expect(describeFailureBreakdown(none, label)).toBe('There are no failures to break down.');
     const one = computeFailureBreakdown([f('sensor', 'none')]);
-    expect(describeFailureBreakdown(one, label)).toBe('Of the 1 failure, 1 was a fault of the part itself (sensor or mechanical) and 0 had another cause.');
+    expect(describeFailureBreakdown(one, label)).toBe('Of the 1 failure, 1 was a fault of the part itself (sensor or mechanical).');
+    const dry = computeFailureBreakdown([f('mechanical', 'none'), f('mechanical', 'none'), f('unknown', 'none')]);
+    expect(describeFailureBreakdown(dry, label)).toBe('Of the 3 failures, 2 were faults of the part itself (sensor or mechanical) and 1 has no known root cause.');
   });
 });

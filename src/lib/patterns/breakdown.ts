@@ -78,11 +78,10 @@ export function describeFailureBreakdown(b: FailureBreakdown, label: (rootCause:
   if (b.total === 0) return 'There are no failures to break down.';
   const n = (x: number, one: string, many: string) => `${x} ${x === 1 ? one : many}`;
   const others = b.byRootCause.filter((r) => r.key !== NOT_RECORDED && r.key !== 'unknown' && !PART_FAULT_CAUSES.includes(r.key));
-  const parts = [
-    `${n(b.partFaults, 'was a fault', 'were faults')} of the part itself (sensor or mechanical)`,
-    `${b.otherCauses} had another cause${others.length ? ` (${others.map((r) => `${label(r.key).toLowerCase()} ${r.count}`).join(', ')})` : ''}`,
-  ];
+  // The part faults are always said (a claim turns on them, even when none); the other kinds only when present.
+  const parts = [`${n(b.partFaults, 'was a fault', 'were faults')} of the part itself (sensor or mechanical)`];
+  if (b.otherCauses > 0) parts.push(`${b.otherCauses} had another cause${others.length ? ` (${others.map((r) => `${label(r.key).toLowerCase()} ${r.count}`).join(', ')})` : ''}`);
   if (b.undetermined > 0) parts.push(`${b.undetermined} ${b.undetermined === 1 ? 'has' : 'have'} no known root cause`);
   const last = parts.pop()!;
-  return `Of the ${n(b.total, 'failure', 'failures')}, ${parts.join(', ')} and ${last}.`;
+  return `Of the ${n(b.total, 'failure', 'failures')}, ${parts.length ? `${parts.join(', ')} and ${last}` : last}.`;
 }
