@@ -199,13 +199,14 @@ export const OVERVIEW_PATTERN_ROWS = 4;
 
 /**
  * The open pattern records the caller may see (no report is run here: records are brought up to date when someone
- * opens Patterns, and at seed time), those needing attention first.
+ * opens Patterns, and at seed time), those needing attention first. A supervisor's figures are their depots' own
+ * (an indexing pass over their fleet, cached; docs/decisions/013).
  */
 function overviewPatterns(user: SessionUser): OverviewPatterns | null {
   if (!can(user.role, 'pattern:read')) return null;
   const { items, lastSync } = listPatternRecords(user, {});
   const open = items.filter((i) => i.status !== 'dismissed' && i.status !== 'resolved');
-  const attention = (i: (typeof items)[number]) => (i.status === 'new' && i.significant) || (i.status !== 'new' && i.changes.changed);
+  const attention = (i: (typeof items)[number]) => (i.status === 'new' && i.significant) || (i.status !== 'new' && i.changes.changed) || (i.campaign?.overdue ?? false);
   const rows = open
     .map((i) => ({ i, needsAttention: attention(i) }))
     .sort((a, b) => Number(b.needsAttention) - Number(a.needsAttention) || Number(b.i.waterIngress) - Number(a.i.waterIngress) || (b.i.rateRatio ?? 0) - (a.i.rateRatio ?? 0));
@@ -213,6 +214,7 @@ function overviewPatterns(user: SessionUser): OverviewPatterns | null {
     open: open.length,
     needsAttention: rows.filter((r) => r.needsAttention).length,
     waterIngressOpen: open.filter((i) => i.waterIngress).length,
+    overdue: open.filter((i) => i.campaign?.overdue).length,
     lastSyncAt: lastSync?.at ?? null,
     items: rows.slice(0, OVERVIEW_PATTERN_ROWS).map(({ i, needsAttention }) => ({
       id: i.id,
@@ -221,13 +223,17 @@ function overviewPatterns(user: SessionUser): OverviewPatterns | null {
       exposureBand: i.exposureBand,
       buildFrom: i.buildFrom,
       buildTo: i.buildTo,
+      vehicles: i.vehicles,
       failures: i.failures,
       expected: i.expected,
       rateRatio: i.rateRatio,
+      figuresScope: i.figuresScope,
       waterIngress: i.waterIngress,
       significant: i.significant,
       status: i.status,
       changes: i.status === 'new' ? [] : i.changes.summary,
+      overdue: i.campaign?.overdue ?? false,
+      campaignTargetDate: i.campaign?.inForce ? i.campaign.targetDate : null,
       needsAttention,
     })),
   };

@@ -1,10 +1,11 @@
 /**
  * Pattern records: patterns kept across re-runs of the report so that fleet managers can act on them (status,
- * campaign, audit trail), synced from the fleet-wide report, and read by supervisors for their depots.
- * Identity, sync and scope rules: docs/decisions/011-pattern-records.md. Edit when a record gains a field or a
- * status gains a rule.
+ * campaign, audit trail), synced from the fleet-wide report, and read by supervisors for their depots — with every
+ * figure recomputed over their depots, never the fleet's. Identity and sync: docs/decisions/011-pattern-records.md;
+ * what a depot-scoped reader sees: docs/decisions/013-pattern-figures-per-depot.md. Edit when a record gains a field
+ * or a status gains a rule.
  */
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { attachments, defects, depots, modules, patternRecords, patternSyncs, users, vehicles } from '@/db/schema';
 import { computeExposureScore } from '@/lib/patterns/exposure';
@@ -12,28 +13,36 @@ import { buildEvidenceCsv, evidenceCsvFileName } from '@/lib/patterns/evidence-c
 import {
   canMovePatternStatus,
   computePatternChanges,
+  diffCampaign,
   formatBuildRange,
+  groupPatternHistory,
+  isCampaignOverdue,
   matchPatternRecord,
   planPatternSync,
   PATTERN_STATUS_TRANSITIONS,
   type PatternStatus,
 } from '@/lib/patterns/records';
-import type { ModuleBaseline, PatternCohort, PatternsReport } from '@/lib/patterns/types';
+import type { CohortFigures, ExposureBand, ModuleBaseline, PatternCohort, PatternsReport } from '@/lib/patterns/types';
 import type {
   CohortRecordRef,
+  CohortView,
+  PatternDefectRow,
+  PatternGroupDetail,
+  PatternHistoryRow,
   PatternRecordDetail,
   PatternRecordsQuery,
   PatternRecordsResponse,
   PatternRecordSummary,
   PatternStatusChange,
   PatternSyncResponse,
+  PatternVehicleRow,
 } from '@/lib/contracts/patterns';
 import { can } from '@/lib/auth/permissions';
 import type { SessionUser } from './auth';
-import { conflict, notFound } from './http';
+import { conflict, invalid, notFound } from './http';
 import { iso } from './list-helpers';
 import { listAudit, writeAudit, type Actor } from './audit';
-import { dataVersion, FLEET_WIDE, getPatternsReport, todayIso } from './patterns';
+import { cohortFiguresFor, dataVersion, FLEET_WIDE, getPatternsReport, listDepotCodes, todayIso } from './patterns';
 
 type RecordRow = typeof patternRecords.$inferSelect;
 
@@ -48,56 +57,8 @@ export interface PatternSnapshot {
 
 const SYSTEM: Actor = { system: 'system' };
 
-// ---------------------------------------------------------------------------------------------------------------
-// Visibility: managers and admins see every record; a supervisor sees a record whose cohort has a vehicle at one
-// of their depots (the vehicle's current depot).
-
-function visibleCondition(user: SessionUser): SQL | undefined {
-  if (user.depotIds === null) return undefined;
-  if (user.depotIds.length === 0) return sql`0`;
-  return sql`exists (select 1 from json_each(${patternRecords.snapshot}, '$.cohort.vehicleIds') j
-    join ${vehicles} v on v.id = j.value where v.depot_id in (${sql.join(user.depotIds.map((d) => sql`${d}`), sql`, `)}))`;
-}
-
 function latestSync() {
   return getDb().select().from(patternSyncs).orderBy(desc(patternSyncs.id)).limit(1).get() ?? null;
-}
-
-function recordSummary(r: RecordRow & { moduleName?: string | null }, latestSyncId: number | null): PatternRecordSummary {
-  const changes = computePatternChanges({ ...r, inLatestReport: latestSyncId !== null && r.lastSyncId === latestSyncId });
-  return {
-    id: r.id,
-    key: r.key,
-    moduleCode: r.moduleCode,
-    moduleName: r.moduleName ?? null,
-    exposureBand: r.exposureBand as PatternCohort['exposureBand'],
-    cohortId: r.cohortId,
-    buildFrom: r.buildFrom,
-    buildTo: r.buildTo,
-    firstBuildFrom: r.firstBuildFrom,
-    firstBuildTo: r.firstBuildTo,
-    vehicles: r.vehicles,
-    failures: r.failures,
-    expected: r.expected,
-    rateRatio: r.rateRatio,
-    ciLow: r.ciLow,
-    ciHigh: r.ciHigh,
-    qValue: r.qValue,
-    moistureShare: r.moistureShare,
-    repeatVehicles: r.repeatVehicles,
-    significant: r.significant,
-    waterIngress: r.waterIngress,
-    status: r.status as PatternStatus,
-    statusReason: r.statusReason,
-    statusAt: iso(r.statusAt),
-    campaign: r.campaignKind ? { kind: r.campaignKind, note: r.campaignNote ?? '', targetDate: r.campaignTargetDate ?? '' } : null,
-    changes,
-    actedAt: iso(r.actedAt),
-    snapshotAsOf: r.snapshotAsOf,
-    firstSeenAt: iso(r.firstSeenAt),
-    lastSeenAt: iso(r.lastSeenAt),
-    version: r.version,
-  };
 }
 
 function selectRecords(where: SQL | undefined) {
@@ -228,29 +189,142 @@ export function syncPatternRecords(by: SessionUser | null, now = Date.now()): Pa
 }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Reading
+// Who sees what. Managers and admins (every depot) read a record's fleet-wide figures. A depot-scoped reader
+// (a supervisor) reads the same record — identity, verdict, status, campaign, history — with every figure computed
+// over their depots only: the record's module type, band and build range applied to the vehicles now at their
+// depots and the defects reported there, as of the record's day. They see a record when that holds a vehicle.
 
-/** For `GET /api/patterns`: a function giving each cohort its record (id, status, changed) among the caller's. */
-export function recordMatcher(user: SessionUser) {
-  const rows = selectRecords(visibleCondition(user));
+/** The caller's depots, or null for people who see every depot. */
+type ReaderScope = { depotIds: number[]; depotCodes: string[] } | null;
+
+function readerScope(user: SessionUser): ReaderScope {
+  return user.depotIds === null ? null : { depotIds: user.depotIds, depotCodes: listDepotCodes(user.depotIds) };
+}
+
+/** A record's figures over the caller's depots (null: no vehicle of the cohort there, or an unknown module). */
+function depotFigures(user: SessionUser, r: RecordRow): CohortFigures | null {
+  const f = cohortFiguresFor(user, r.snapshotAsOf).figures({
+    moduleCode: r.moduleCode,
+    band: r.exposureBand as ExposureBand,
+    buildFrom: r.buildFrom,
+    buildTo: r.buildTo,
+  });
+  return f && f.vehicles > 0 ? f : null;
+}
+
+/** Failures among `failureIds` entered since `sinceMs` (the new failures a depot-scoped reader is told about). */
+function failuresEnteredSince(failureIds: number[], sinceMs: number | null): number {
+  if (failureIds.length === 0) return 0;
+  const ids = sql`${defects.id} in (select value from json_each(${JSON.stringify(failureIds)}))`;
+  const row = getDb()
+    .select({ n: sql<number>`count(*)` })
+    .from(defects)
+    .where(sinceMs === null ? ids : and(ids, gt(defects.createdAt, sinceMs)))
+    .get();
+  return row?.n ?? 0;
+}
+
+type Visible = { r: RecordRow; moduleName: string | null; scoped: CohortFigures | null };
+
+/** Records the caller may see among those matching `where`, each with its figures over the caller's depots. */
+function visibleRecords(user: SessionUser, where?: SQL): Visible[] {
+  const rows = selectRecords(where);
+  if (user.depotIds === null) return rows.map(({ r, moduleName }) => ({ r, moduleName, scoped: null }));
+  const out: Visible[] = [];
+  for (const { r, moduleName } of rows) {
+    const scoped = depotFigures(user, r);
+    if (scoped) out.push({ r, moduleName, scoped });
+  }
+  return out;
+}
+
+function campaignOf(r: RecordRow, today: string): PatternRecordSummary['campaign'] {
+  if (!r.campaignKind) return null;
+  const status = r.status as PatternStatus;
+  return {
+    kind: r.campaignKind,
+    note: r.campaignNote ?? '',
+    targetDate: r.campaignTargetDate ?? '',
+    inForce: status === 'campaign_planned',
+    overdue: isCampaignOverdue(status, r.campaignTargetDate, today),
+  };
+}
+
+function recordSummary(v: Visible, latestSyncId: number | null, scope: ReaderScope, today = todayIso()): PatternRecordSummary {
+  const { r, scoped } = v;
+  const inLatestReport = latestSyncId !== null && r.lastSyncId === latestSyncId;
+  // A depot-scoped reader is told of new failures at their depots only: those entered since the last action.
+  const changes = scoped
+    ? computePatternChanges({ ...r, failures: failuresEnteredSince(scoped.failureIds, r.actedAt), actedFailures: 0, inLatestReport }, 'in your depots')
+    : computePatternChanges({ ...r, inLatestReport });
+  const f = scoped ?? r;
+  return {
+    id: r.id,
+    key: r.key,
+    moduleCode: r.moduleCode,
+    moduleName: v.moduleName ?? null,
+    exposureBand: r.exposureBand as ExposureBand,
+    cohortId: r.cohortId,
+    buildFrom: r.buildFrom,
+    buildTo: r.buildTo,
+    firstBuildFrom: r.firstBuildFrom,
+    firstBuildTo: r.firstBuildTo,
+    vehicles: f.vehicles,
+    failures: f.failures,
+    expected: f.expected,
+    rateRatio: f.rateRatio,
+    ciLow: f.ciLow,
+    ciHigh: f.ciHigh,
+    qValue: scoped ? null : r.qValue,
+    moistureShare: f.moistureShare,
+    repeatVehicles: f.repeatVehicles,
+    significant: r.significant,
+    waterIngress: r.waterIngress,
+    figuresScope: scoped ? 'depots' : 'fleet',
+    depotCodes: scope ? scope.depotCodes : null,
+    status: r.status as PatternStatus,
+    statusReason: r.statusReason,
+    statusAt: iso(r.statusAt),
+    campaign: campaignOf(r, today),
+    changes,
+    actedAt: iso(r.actedAt),
+    snapshotAsOf: r.snapshotAsOf,
+    firstSeenAt: iso(r.firstSeenAt),
+    lastSeenAt: iso(r.lastSeenAt),
+    version: r.version,
+  };
+}
+
+/**
+ * For `GET /api/patterns`: a function giving each cohort its record (id, today's status, changed, overdue) among the
+ * caller's. For a past as-of day only a significant cohort names a record — a record is made only from a
+ * significant cohort, so a weaker group of another day is not that pattern.
+ */
+export function recordMatcher(user: SessionUser, asOf: string = todayIso()) {
+  const today = todayIso();
+  const scope = readerScope(user);
+  const visible = visibleRecords(user);
   const latest = latestSync()?.id ?? null;
-  const records = rows.map(({ r }) => r);
-  return (c: { key: string; buildFrom: string; buildTo: string }): CohortRecordRef => {
+  const records = visible.map((v) => v.r);
+  return (c: { key: string; buildFrom: string; buildTo: string; significant: boolean }): CohortRecordRef => {
+    if (asOf !== today && !c.significant) return null;
     const r = matchPatternRecord(c, records);
     if (!r) return null;
-    const s = recordSummary(r, latest);
-    return { id: r.id, status: s.status, changed: s.changes.changed, changes: s.changes.summary };
+    const s = recordSummary(visible.find((v) => v.r.id === r.id)!, latest, scope, today);
+    return { id: r.id, status: s.status, changed: s.changes.changed, changes: s.changes.summary, overdue: s.campaign?.overdue ?? false };
   };
 }
 
 /** Pattern records the caller may see, filtered; strongest evidence first. */
 export function listPatternRecords(user: SessionUser, q: PatternRecordsQuery): PatternRecordsResponse {
-  const conds: (SQL | undefined)[] = [visibleCondition(user)];
+  const conds: (SQL | undefined)[] = [];
   if (q.status?.length) conds.push(inArray(patternRecords.status, q.status as PatternStatus[]));
   if (q.module) conds.push(eq(patternRecords.moduleCode, q.module.toUpperCase()));
   if (q.water) conds.push(eq(patternRecords.waterIngress, q.water === '1' || q.water === 'true'));
   const latest = latestSync();
-  let items = selectRecords(and(...conds)).map(({ r, moduleName }) => recordSummary({ ...r, moduleName }, latest?.id ?? null));
+  const scope = readerScope(user);
+  const today = todayIso();
+  let items = visibleRecords(user, and(...conds)).map((v) => recordSummary(v, latest?.id ?? null, scope, today));
   if (q.changed) {
     const want = q.changed === '1' || q.changed === 'true';
     items = items.filter((i) => i.changes.changed === want);
@@ -262,23 +336,18 @@ export function listPatternRecords(user: SessionUser, q: PatternRecordsQuery): P
   };
 }
 
-function loadVisibleRecord(user: SessionUser, id: number): RecordRow & { moduleName: string | null } {
-  const row = getDb()
-    .select({ r: patternRecords, moduleName: modules.name })
-    .from(patternRecords)
-    .leftJoin(modules, eq(modules.code, patternRecords.moduleCode))
-    .where(and(eq(patternRecords.id, id), visibleCondition(user)))
-    .get();
-  if (!row) throw notFound('Pattern');
-  return { ...row.r, moduleName: row.moduleName };
+function loadVisibleRecord(user: SessionUser, id: number): Visible {
+  const [v] = visibleRecords(user, eq(patternRecords.id, id));
+  if (!v) throw notFound('Pattern');
+  return v;
 }
 
 /** True when the record exists and the caller may see it (pages answer 404 otherwise). */
 export function patternRecordVisible(user: SessionUser, id: number): boolean {
-  return !!getDb().select({ id: patternRecords.id }).from(patternRecords).where(and(eq(patternRecords.id, id), visibleCondition(user))).get();
+  return visibleRecords(user, eq(patternRecords.id, id)).length > 0;
 }
 
-function depotFilter(user: SessionUser, column: SQL | typeof vehicles.depotId): SQL | undefined {
+function depotFilter(user: SessionUser, column: SQL | typeof vehicles.depotId | typeof defects.depotId): SQL | undefined {
   if (user.depotIds === null) return undefined;
   if (user.depotIds.length === 0) return sql`0`;
   return sql`${column} in (${sql.join(user.depotIds.map((d) => sql`${d}`), sql`, `)})`;
@@ -286,12 +355,15 @@ function depotFilter(user: SessionUser, column: SQL | typeof vehicles.depotId): 
 
 const WET = new Set(['traces', 'corrosion', 'standing_water']);
 
-/** The vehicles and failures behind a record, limited to the caller's depots, with trace verdicts per defect. */
-function cohortMembers(user: SessionUser, snap: PatternSnapshot) {
+/**
+ * The vehicles and failures behind a cohort, within the caller's scope, with trace verdicts per defect: vehicles now
+ * at the caller's depots, defects reported at them (a defect's depot is its own, not its vehicle's current one).
+ */
+function cohortMembers(user: SessionUser, ids: { vehicleIds: number[]; failureIds: number[]; repeatVehicleIds: number[] }): { vehicles: PatternVehicleRow[]; defects: PatternDefectRow[] } {
   const db = getDb();
-  const vehicleIdsJson = JSON.stringify(snap.cohort.vehicleIds);
-  const failureIdsJson = JSON.stringify(snap.cohort.failureIds);
-  const repeat = new Set(snap.cohort.repeatVehicleIds);
+  const vehicleIdsJson = JSON.stringify(ids.vehicleIds);
+  const failureIdsJson = JSON.stringify(ids.failureIds);
+  const repeat = new Set(ids.repeatVehicleIds);
   const vs = db
     .select({
       id: vehicles.id,
@@ -334,11 +406,13 @@ function cohortMembers(user: SessionUser, snap: PatternSnapshot) {
       drainCondition: defects.drainCondition,
       connectorCondition: defects.connectorCondition,
       depotCode: depots.code,
+      vin: vehicles.vin,
+      fleetNumber: vehicles.fleetNumber,
     })
     .from(defects)
     .innerJoin(depots, eq(depots.id, defects.depotId))
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
-    .where(and(sql`${defects.id} in (select value from json_each(${failureIdsJson}))`, depotFilter(user, vehicles.depotId)))
+    .where(and(sql`${defects.id} in (select value from json_each(${failureIdsJson}))`, depotFilter(user, defects.depotId)))
     .orderBy(defects.reportedAt, defects.id)
     .all();
   const traces = new Map<number, { id: number; verdict: string; fileName: string | null }[]>();
@@ -362,7 +436,6 @@ function cohortMembers(user: SessionUser, snap: PatternSnapshot) {
       traces.set(t.defectId as number, list);
     }
   }
-  const vehicleById = new Map(vs.map((v) => [v.id, v]));
   const failuresPerVehicle = new Map<number, number>();
   for (const d of ds) failuresPerVehicle.set(d.vehicleId, (failuresPerVehicle.get(d.vehicleId) ?? 0) + 1);
   const vehicleRows = vs
@@ -388,30 +461,27 @@ function cohortMembers(user: SessionUser, snap: PatternSnapshot) {
       };
     })
     .sort((a, b) => b.failures - a.failures || (a.fleetNumber ?? a.vin).localeCompare(b.fleetNumber ?? b.vin));
-  const defectRows = ds.map((d) => {
-    const v = vehicleById.get(d.vehicleId);
-    return {
-      id: d.id,
-      ref: d.ref,
-      vehicleId: d.vehicleId,
-      vin: v?.vin ?? '',
-      fleetNumber: v?.fleetNumber ?? null,
-      depotCode: d.depotCode,
-      reportedAt: iso(d.reportedAt)!,
-      position: d.position,
-      status: d.status,
-      symptom: d.symptom,
-      dtcs: d.dtcs ? d.dtcs.split(' ') : [],
-      moisture: d.moisture,
-      rootCause: d.rootCause,
-      action: d.action,
-      closedAt: iso(d.closedAt),
-      conditions: { membrane: d.membraneCondition, seal: d.sealCondition, drain: d.drainCondition, connector: d.connectorCondition },
-      diagnosed: d.moisture !== null || d.rootCause !== null,
-      wet: (d.moisture !== null && WET.has(d.moisture)) || d.rootCause === 'water_ingress',
-      traces: traces.get(d.id) ?? [],
-    };
-  });
+  const defectRows = ds.map((d) => ({
+    id: d.id,
+    ref: d.ref,
+    vehicleId: d.vehicleId,
+    vin: d.vin,
+    fleetNumber: d.fleetNumber,
+    depotCode: d.depotCode,
+    reportedAt: iso(d.reportedAt)!,
+    position: d.position,
+    status: d.status,
+    symptom: d.symptom,
+    dtcs: d.dtcs ? d.dtcs.split(' ') : [],
+    moisture: d.moisture,
+    rootCause: d.rootCause,
+    action: d.action,
+    closedAt: iso(d.closedAt),
+    conditions: { membrane: d.membraneCondition, seal: d.sealCondition, drain: d.drainCondition, connector: d.connectorCondition },
+    diagnosed: d.moisture !== null || d.rootCause !== null,
+    wet: (d.moisture !== null && WET.has(d.moisture)) || d.rootCause === 'water_ingress',
+    traces: traces.get(d.id) ?? [],
+  }));
   return { vehicles: vehicleRows, defects: defectRows };
 }
 
@@ -421,33 +491,105 @@ function statusPerson(id: number | null): { id: number; name: string } | null {
   return u ?? null;
 }
 
-/** One pattern record with its latest cohort, the vehicles and defects behind it (caller's depots), and its history. */
-export function getPatternRecord(user: SessionUser, id: number): PatternRecordDetail {
-  const r = loadVisibleRecord(user, id);
-  const latest = latestSync();
-  const snap = JSON.parse(r.snapshot) as PatternSnapshot;
-  const { vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, ...cohort } = snap.cohort;
+function moduleFacts(code: string): PatternRecordDetail['module'] {
   const mod = getDb()
     .select({ name: modules.name, function: modules.function, partNumber: modules.partNumber, supplier: modules.supplier })
     .from(modules)
-    .where(eq(modules.code, r.moduleCode))
+    .where(eq(modules.code, code))
     .get();
-  const members = cohortMembers(user, snap);
+  return mod ? { code, ...mod } : { code, name: null, function: null, partNumber: null, supplier: null };
+}
+
+/** A report's cohort as the pages show it (ids dropped, the scan's figures under `search`). */
+function cohortView(c: PatternCohort): CohortView {
+  const {
+    vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r,
+    pValue, qValue, scanLlr, scanExpected, mcP, gumbelP, pValueMethod, replicates, windowsTested,
+    ...figures
+  } = c;
+  return { ...figures, search: { pValue, qValue, scanLlr, scanExpected, mcP, gumbelP, pValueMethod, replicates, windowsTested } };
+}
+
+/** A record's range read over the caller's depots: its figures there, with the record's fleet-wide verdict. */
+function depotCohortView(f: CohortFigures, r: RecordRow): CohortView {
+  const { vehicleIds: _v, failureIds: _f, repeatVehicleIds: _r, ...figures } = f;
+  const verdict = !r.significant ? 'not_significant' : r.waterIngress ? 'water_ingress' : 'significant_dry';
+  return { ...figures, significant: r.significant, waterIngress: r.waterIngress, verdict, search: null };
+}
+
+/**
+ * The history in entries of one action each. A depot-scoped reader sees when the pattern was found, not the fleet's
+ * counts written with it.
+ */
+function patternHistory(id: number, scoped: boolean): PatternHistoryRow[] {
+  const rows = listAudit('pattern', String(id)).map((h) => ({
+    id: h.id,
+    at: h.at,
+    who: h.who,
+    action: h.action,
+    field: h.field,
+    oldValue: h.oldValue,
+    newValue: scoped && h.action === 'found' ? 'Found in the fleet-wide report' : h.newValue,
+  }));
+  return groupPatternHistory(rows);
+}
+
+/** One pattern record with its cohort, the vehicles and defects behind it (caller's depots), and its history. */
+export function getPatternRecord(user: SessionUser, id: number): PatternRecordDetail {
+  const v = loadVisibleRecord(user, id);
+  const r = v.r;
+  const latest = latestSync();
+  const scope = readerScope(user);
+  const snap = JSON.parse(r.snapshot) as PatternSnapshot;
+  const scoped = v.scoped;
+  const members = cohortMembers(user, scoped ?? snap.cohort);
   const writer = can(user.role, 'pattern:write');
+  const history = patternHistory(r.id, scoped !== null);
+  // History is newest first: the first "→ resolved" entry is when the last campaign was resolved.
+  const lastResolved = history.find((h) => h.changes.some((c) => c.field === 'status' && c.newValue === 'resolved'));
   return {
-    ...recordSummary(r, latest?.id ?? null),
+    ...recordSummary(v, latest?.id ?? null, scope),
     statusBy: statusPerson(r.statusById),
-    module: mod ? { code: r.moduleCode, ...mod } : { code: r.moduleCode, name: null, function: null, partNumber: null, supplier: null },
-    baseline: snap.module,
-    cohort,
+    module: moduleFacts(r.moduleCode),
+    baseline: scoped ? cohortFiguresFor(user, r.snapshotAsOf).baseline(r.moduleCode) : snap.module,
+    cohort: scoped ? depotCohortView(scoped, r) : cohortView(snap.cohort),
     method: snap.method,
-    /** Whose depots the vehicle and defect lists cover: every depot, or the caller's. */
-    scope: user.depotIds === null ? ('all' as const) : ('depots' as const),
+    scope: scope === null ? 'all' : 'depots',
+    cohortsTested: scoped ? null : snap.counts.cohortsTested,
+    campaignResolvedAt: r.campaignKind && r.status !== 'campaign_planned' ? (lastResolved?.at ?? null) : null,
     vehicleList: members.vehicles,
     defectList: members.defects,
-    history: listAudit('pattern', String(r.id)),
+    history,
     allowedStatuses: writer ? [...PATTERN_STATUS_TRANSITIONS[r.status as PatternStatus]] : [],
     lastSync: latest ? { id: latest.id, at: new Date(latest.at).toISOString(), asOf: latest.asOf } : null,
+  };
+}
+
+/**
+ * One module type × band of the report as of a day over the caller's depots, read only: the group's cohort (the
+ * build range its scan found, significant or not), the vehicles and defects behind it, and the record it belongs
+ * to (today's status), if any. 404 when the report has no such group.
+ */
+export function getPatternGroup(user: SessionUser, q: { moduleCode: string; band: ExposureBand; asOf: string }): PatternGroupDetail {
+  const report = getPatternsReport(user, q.asOf);
+  const code = q.moduleCode.trim().toUpperCase();
+  const c = report.cohorts.find((x) => x.key === `${code}:${q.band}`);
+  if (!c) throw notFound(`Group ${code} ${q.band} exposure`);
+  const scope = readerScope(user);
+  const members = cohortMembers(user, c);
+  return {
+    asOf: report.asOf,
+    today: todayIso(),
+    module: moduleFacts(code),
+    baseline: report.modules.find((m) => m.moduleCode === code) ?? null,
+    cohort: cohortView(c),
+    method: report.method,
+    scope: scope === null ? 'all' : 'depots',
+    depotCodes: scope ? scope.depotCodes : null,
+    cohortsTested: report.counts.cohortsTested,
+    vehicleList: members.vehicles,
+    defectList: members.defects,
+    record: recordMatcher(user, report.asOf)(c),
   };
 }
 
@@ -455,11 +597,14 @@ export function getPatternRecord(user: SessionUser, id: number): PatternRecordDe
 // Acting
 
 /**
- * Move a record to a new status (with the campaign or reason it needs), in one transaction with an audit row
- * per changed field. 409 for a move the rules do not allow or a stale `version`.
+ * Move a record to a new status (with the campaign or reason it needs), in one transaction with an audit row per
+ * changed field; the rows of one action share its moment, so the history shows one entry per action. Revising a
+ * planned campaign records only the fields that changed (action `campaign_revised`). 409 for a move the rules do
+ * not allow or a stale `version`; 400 for a campaign target date before today or a revision that changes nothing.
  */
 export function changePatternStatus(user: SessionUser, id: number, body: PatternStatusChange, actor: Actor, now = Date.now()) {
   const db = getDb();
+  const today = todayIso(now);
   db.transaction(
     (tx) => {
       const r = tx.select().from(patternRecords).where(eq(patternRecords.id, id)).get();
@@ -473,6 +618,23 @@ export function changePatternStatus(user: SessionUser, id: number, body: Pattern
           current: { status: from, version: r.version },
           allowed: PATTERN_STATUS_TRANSITIONS[from],
         });
+      }
+      const revising = from === 'campaign_planned' && body.status === 'campaign_planned';
+      const campaignChanges =
+        body.status === 'campaign_planned'
+          ? diffCampaign(revising ? { kind: r.campaignKind ?? undefined, note: r.campaignNote ?? undefined, targetDate: r.campaignTargetDate ?? undefined } : null, body.campaign)
+          : [];
+      if (body.status === 'campaign_planned') {
+        if (body.campaign.targetDate < today) {
+          throw invalid(`The target date ${body.campaign.targetDate} is in the past; choose today (${today}) or later.`, [
+            { path: 'campaign.targetDate', message: `The target date must be today (${today}) or later` },
+          ]);
+        }
+        if (revising && campaignChanges.length === 0 && !body.note) {
+          throw invalid('Nothing to change: the campaign is as planned. Change its kind, description or target date, or add a note.', [
+            { path: 'campaign', message: 'Unchanged' },
+          ]);
+        }
       }
       const reason = body.status === 'dismissed' ? body.reason : (body.note ?? null);
       const next: Partial<RecordRow> = {
@@ -494,15 +656,12 @@ export function changePatternStatus(user: SessionUser, id: number, body: Pattern
       }
       tx.update(patternRecords).set(next).where(eq(patternRecords.id, id)).run();
       const entityId = String(id);
+      const action = revising ? 'campaign_revised' : 'status';
       const audit = (field: string, oldValue: string | null, newValue: string | null) =>
-        writeAudit(tx, actor, { entity: 'pattern', entityId, action: 'status', field, oldValue, newValue }, now);
-      audit('status', from, body.status);
+        writeAudit(tx, actor, { entity: 'pattern', entityId, action, field, oldValue, newValue }, now);
+      if (!revising) audit('status', from, body.status);
+      for (const c of campaignChanges) audit(c.field, c.oldValue, c.newValue);
       if (next.statusReason) audit(body.status === 'dismissed' ? 'reason' : 'note', null, next.statusReason);
-      if (body.status === 'campaign_planned') {
-        if (r.campaignKind !== body.campaign.kind) audit('campaignKind', r.campaignKind, body.campaign.kind);
-        if (r.campaignNote !== body.campaign.note) audit('campaignNote', r.campaignNote, body.campaign.note);
-        if (r.campaignTargetDate !== body.campaign.targetDate) audit('campaignTargetDate', r.campaignTargetDate, body.campaign.targetDate);
-      }
     },
     { behavior: 'immediate' },
   );
@@ -521,8 +680,8 @@ export function getPatternEvidenceCsv(user: SessionUser, id: number): { csv: str
 
 /**
  * For the Overview: patterns that need a fleet manager's attention among the caller's records — significant and
- * new, or changed since someone last acted on them (new failures or a changed build range, whatever the status).
- * Null for roles that do not read patterns. Reads the records as last synced (no report is computed).
+ * new, changed since someone last acted on them (new failures or a changed build range, whatever the status), or a
+ * campaign past its target date. Null for roles that do not read patterns. Reads the records as last synced.
  */
 export function getPatternsAttention(user: SessionUser) {
   if (!can(user.role, 'pattern:read')) return null;
@@ -531,10 +690,12 @@ export function getPatternsAttention(user: SessionUser) {
   const isNew = items.filter((i) => i.status === 'new' && i.significant);
   // New failures after a campaign was resolved (or a pattern dismissed) matter most: the decision may not hold.
   const changed = items.filter((i) => i.status !== 'new' && (i.changes.newFailures > 0 || i.changes.range !== 'same'));
+  const overdue = items.filter((i) => i.campaign?.overdue);
   return {
-    needsAttention: new Set([...isNew, ...changed].map((i) => i.id)).size,
+    needsAttention: new Set([...isNew, ...changed, ...overdue].map((i) => i.id)).size,
     new: isNew.length,
     changed: changed.length,
+    overdue: overdue.length,
     open: open.length,
     waterIngressOpen: open.filter((i) => i.waterIngress).length,
     href: '/patterns',

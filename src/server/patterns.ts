@@ -6,8 +6,9 @@ import { and, eq, inArray, ne, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { defects, depots, modules, vehicles } from '@/db/schema';
 import { computePatternsReport } from '@/lib/patterns/report';
-import { computeMcfSeries } from '@/lib/patterns/mcf-fleet';
-import type { PatternsInput, PatternsReport, ExposureBand } from '@/lib/patterns/types';
+import { computeMcfCompare, computeMcfSeries, type McfCompareSeries, type McfSeries } from '@/lib/patterns/mcf-fleet';
+import { createCohortFigures, type CohortFiguresCalculator, type CohortQuery } from '@/lib/patterns/cohort-figures';
+import type { CohortFigures, ExposureBand, ModuleBaseline, PatternsInput, PatternsReport } from '@/lib/patterns/types';
 import { parseIsoDate } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { depotScope } from './list-helpers';
@@ -81,7 +82,10 @@ export function failureDay(reportedAtMs: number, reportedAtText: string | null, 
   return f.format(new Date(reportedAtMs));
 }
 
-/** The engine's input for the caller's depots (cancelled defects left out). */
+/**
+ * The engine's input for the caller's depots: the vehicles now at those depots and the defects reported at them
+ * (cancelled defects left out). A defect of another depot on a vehicle that moved here is not the caller's.
+ */
 export function loadPatternsInput(user: SessionUser): PatternsInput {
   const db = getDb();
   const vScope = depotScope(user, vehicles.depotId);
@@ -120,7 +124,9 @@ export function loadPatternsInput(user: SessionUser): PatternsInput {
     .from(defects)
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
     .innerJoin(depots, eq(depots.id, defects.depotId))
-    .where(and(vScope, ne(defects.status, 'cancelled')))
+    // A defect belongs to the depot it was reported at (defects.depot_id), whatever its vehicle's depot is now: only
+    // defects of the caller's depots, on vehicles the caller sees, are counted (docs/decisions/013).
+    .where(and(vScope, depotScope(user, defects.depotId), ne(defects.status, 'cancelled')))
     .all()
     .map(({ reportedAtText, timezone, ...f }) => ({
       ...f,
@@ -149,7 +155,7 @@ export const FLEET_WIDE: SessionUser = { id: 0, email: 'system', name: 'Seepline
  * pattern record each cohort belongs to (`record`, null when none) among the records the caller may see.
  */
 export function patternsResponse(report: PatternsReport, user: SessionUser = FLEET_WIDE): PatternsReportResponse {
-  const recordOf = recordMatcher(user);
+  const recordOf = recordMatcher(user, report.asOf);
   return {
     ...report,
     asOf: report.asOf,
@@ -163,13 +169,46 @@ export function listDepotCodes(depotIds: number[]): string[] {
   return getDb().select({ code: depots.code }).from(depots).where(inArray(depots.id, depotIds)).all().map((d) => d.code).sort();
 }
 
-/** Mean cumulative function series for a module type. */
-export function getMcf(user: SessionUser, moduleCode: string, asOf: string, byBand: boolean) {
+/** A cohort to compare with the rest of its band on the MCF chart. */
+export type McfCompareQuery = { band: ExposureBand; buildFrom: string; buildTo: string };
+
+/**
+ * Mean cumulative function series for a module type over the caller's depots; with `compare`, also the curves of
+ * that band's vehicles built in the range and of the rest of the band (an addition to the CONTRACT.md body).
+ */
+export function getMcf(
+  user: SessionUser,
+  moduleCode: string,
+  asOf: string,
+  byBand: boolean,
+  compare?: McfCompareQuery,
+): { series: McfSeries[]; compare?: McfCompareQuery & { series: McfCompareSeries[] } } {
   const code = moduleCode.trim().toUpperCase();
   if (!getDb().select({ id: modules.id }).from(modules).where(eq(modules.code, code)).get()) throw notFound('Module type');
-  return cached(`mcf|${scopeKey(user)}|${asOf}|${code}|${byBand}`, () =>
+  const base = cached(`mcf|${scopeKey(user)}|${asOf}|${code}|${byBand}`, () =>
     computeMcfSeries(loadPatternsInput(user), { moduleCode: code, asOf, byExposureBand: byBand }),
   );
+  if (!compare) return base;
+  const extra = cached(`mcfc|${scopeKey(user)}|${asOf}|${code}|${compare.band}|${compare.buildFrom}|${compare.buildTo}`, () =>
+    computeMcfCompare(loadPatternsInput(user), { moduleCode: code, asOf, ...compare }),
+  );
+  return { ...base, compare: { ...compare, series: extra } };
+}
+
+/** Figures of build ranges and module baselines over the caller's depots as of a day (fleet indexed once, cached). */
+export function cohortFiguresFor(user: SessionUser, asOf: string): { figures: (q: CohortQuery) => CohortFigures | null; baseline: (code: string) => ModuleBaseline | null } {
+  return cached(`figures|${scopeKey(user)}|${asOf}`, () => {
+    const calc: CohortFiguresCalculator = createCohortFigures(loadPatternsInput(user), asOf);
+    const memo = new Map<string, CohortFigures | null>();
+    return {
+      figures: (q: CohortQuery) => {
+        const k = `${q.moduleCode}|${q.band}|${q.buildFrom}|${q.buildTo}`;
+        if (!memo.has(k)) memo.set(k, calc.figures(q));
+        return memo.get(k) ?? null;
+      },
+      baseline: (code: string) => calc.baseline(code),
+    };
+  });
 }
 
 export type { ExposureBand };

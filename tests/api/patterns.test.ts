@@ -36,6 +36,8 @@ beforeAll(async () => {
   admin = (await personWithToken('admin')).token;
 }, 120_000);
 
+/** A day `days` after today (UTC), `YYYY-MM-DD`: campaign target dates may not be in the past. */
+const daysAhead = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 const monthsApart = (a: string, b: string) => Math.abs(toMonthIndex(a) - toMonthIndex(b));
 const getReport = async (token: string, asOf?: string) => {
   const r = await call(report, 'GET', `/api/patterns${asOf ? `?asOf=${asOf}` : ''}`, { token });
@@ -154,10 +156,11 @@ describe('pattern records', () => {
     expect(ack.status).toBe(200);
     const a = (await body(ack)) as PatternRecordDetail;
     expect(a).toMatchObject({ status: 'acknowledged', statusReason: 'Seen; checking with the depots', version: 2, statusBy: { id: manager.id } });
-    const campaign = { kind: 'new_membranes', note: 'Fit new membranes and clear drains on every cohort van', targetDate: '2026-09-30' };
+    const target = daysAhead(90);
+    const campaign = { kind: 'new_membranes', note: 'Fit new membranes and clear drains on every cohort van', targetDate: target };
     const plan = await move(manager.token, wetId, { status: 'campaign_planned', campaign, version: 2 });
     expect(plan.status).toBe(200);
-    expect(await body(plan)).toMatchObject({ status: 'campaign_planned', campaign, allowedStatuses: ['campaign_planned', 'resolved', 'dismissed'] });
+    expect(await body(plan)).toMatchObject({ status: 'campaign_planned', campaign: { ...campaign, inForce: true, overdue: false }, allowedStatuses: ['campaign_planned', 'resolved', 'dismissed'] });
     const rows = auditRows(wetId).filter((r) => r.action === 'status');
     expect(rows).toEqual([
       { userId: manager.id, actor: null, action: 'status', field: 'status', oldValue: 'new', newValue: 'acknowledged' },
@@ -165,10 +168,14 @@ describe('pattern records', () => {
       { userId: manager.id, actor: null, action: 'status', field: 'status', oldValue: 'acknowledged', newValue: 'campaign_planned' },
       { userId: manager.id, actor: null, action: 'status', field: 'campaignKind', oldValue: null, newValue: 'new_membranes' },
       { userId: manager.id, actor: null, action: 'status', field: 'campaignNote', oldValue: null, newValue: campaign.note },
-      { userId: manager.id, actor: null, action: 'status', field: 'campaignTargetDate', oldValue: null, newValue: '2026-09-30' },
+      { userId: manager.id, actor: null, action: 'status', field: 'campaignTargetDate', oldValue: null, newValue: target },
     ]);
+    // The history shows one entry per action: acknowledged with its note, then the campaign with its three fields.
     const { json } = await getRecord(manager.token, wetId);
-    expect(json.history.filter((h) => h.action === 'status')).toHaveLength(6);
+    expect(json.history.filter((h) => h.action === 'status').map((h) => h.changes.map((c) => c.field))).toEqual([
+      ['status', 'campaignKind', 'campaignNote', 'campaignTargetDate'],
+      ['status', 'note'],
+    ]);
   });
 
   it('refuses moves the rules do not allow (409) and writes nothing', async () => {
@@ -180,7 +187,7 @@ describe('pattern records', () => {
     expect(j.allowed).toEqual(['acknowledged', 'campaign_planned', 'dismissed']);
     expect((await move(admin, dryId, { status: 'dismissed', reason: 'Known batch issue, supplier informed' })).status).toBe(200);
     expect((await move(admin, dryId, { status: 'dismissed', reason: 'again' })).status).toBe(409);
-    expect((await move(admin, dryId, { status: 'campaign_planned', campaign: { kind: 'replace_module', note: 'replace all', targetDate: '2026-12-31' } })).status).toBe(409);
+    expect((await move(admin, dryId, { status: 'campaign_planned', campaign: { kind: 'replace_module', note: 'replace all', targetDate: daysAhead(30) } })).status).toBe(409);
     // A stale version is a conflict too.
     const stale = await move(admin, dryId, { status: 'acknowledged', version: 1 });
     expect(stale.status).toBe(409);
@@ -251,7 +258,7 @@ describe('a cohort whose build range widens keeps its record', () => {
   it('the Overview figure counts it as needing attention (changed since the last action)', () => {
     const me = { id: manager.id, email: 'm', name: 'M', role: 'manager' as const, depotIds: null, via: 'token' as const };
     // WLR-2 (acknowledged, range widened since) needs attention; DLA-1 (acknowledged, unchanged) does not.
-    expect(getPatternsAttention(me)).toEqual({ needsAttention: 1, new: 0, changed: 1, open: 2, waterIngressOpen: 1, href: '/patterns' });
+    expect(getPatternsAttention(me)).toEqual({ needsAttention: 1, new: 0, changed: 1, overdue: 0, open: 2, waterIngressOpen: 1, href: '/patterns' });
     expect(getPatternsAttention({ ...me, role: 'technician', depotIds: [] })).toBeNull();
   });
 

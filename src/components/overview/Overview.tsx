@@ -9,9 +9,10 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { Plus } from 'lucide-react';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { STATUS_BADGE, STATUS_LABELS, POSITION_LABELS } from '@/components/labels';
-import { formatInstantDate } from '@/components/defects/format';
+import { formatCalendarDate, formatInstantDate } from '@/components/defects/format';
 import { OPEN_STATUSES, type OverviewDefect, type OverviewPatterns, type OverviewResponse } from '@/lib/contracts/overview';
 import { formatBuildRange } from '@/lib/patterns/records';
+import { formatCount, formatExpected, formatTimes } from '@/lib/patterns/explain';
 import { BAND_LABELS, PATTERN_STATUS_BADGE, PATTERN_STATUS_LABELS, VERDICT_BADGE, VERDICT_LABELS } from '@/components/patterns/labels';
 import { defectsHref } from '@/lib/overview/links';
 import { DepotRepeatChart, ModuleChart, RepeatTrendChart, STATUS_COLOURS, StatusDepotChart } from './charts';
@@ -133,7 +134,9 @@ function PatternsSection({ p, manages }: { p: OverviewPatterns; manages: boolean
   const sub =
     p.open === 0
       ? `Cohorts of vehicles whose doors fail above the fleet rate · ${analysed}`
-      : `${fmt(p.open)} open · ${fmt(p.needsAttention)} need${p.needsAttention === 1 ? 's' : ''} a look · ${fmt(p.waterIngressOpen)} water ingress · ${analysed}`;
+      : `${fmt(p.open)} open · ${fmt(p.needsAttention)} need${p.needsAttention === 1 ? 's' : ''} a look · ${fmt(p.waterIngressOpen)} water ingress${p.overdue ? ` · ${fmt(p.overdue)} campaign${p.overdue === 1 ? '' : 's'} overdue` : ''} · ${analysed}`;
+  // A supervisor's figures are their depots' own (docs/decisions/013); say so on the columns.
+  const mine = p.items.some((i) => i.figuresScope === 'depots');
   return (
     <Section
       title="Patterns to act on"
@@ -160,8 +163,12 @@ function PatternsSection({ p, manages }: { p: OverviewPatterns; manages: boolean
               <tr>
                 <th>Pattern</th>
                 <th>Built</th>
-                <th className="text-right">Rate ratio</th>
-                <th className="text-right">Failures</th>
+                <th className="text-right" title={mine ? 'How many times as often as the rest of the vehicles at your depots' : 'How many times as often as the rest of the fleet'}>
+                  {mine ? 'Rate vs rest of your depots' : 'Rate vs rest of fleet'}
+                </th>
+                <th className="text-right" title={mine ? "Failures at your depots against what your depots' rate gives" : "Failures against what the fleet's rate gives"}>
+                  {mine ? 'Failures in your depots' : 'Failures vs expected'}
+                </th>
                 <th>Verdict</th>
                 <th>Status</th>
               </tr>
@@ -179,15 +186,23 @@ function PatternsSection({ p, manages }: { p: OverviewPatterns; manages: boolean
                       {r.moduleName && <div className="text-xs text-ink-500">{r.moduleName}</div>}
                     </td>
                     <td className="whitespace-nowrap">{formatBuildRange(r)}</td>
-                    <td className="text-right font-semibold tabular-nums">{r.rateRatio === null ? '–' : `${r.rateRatio.toFixed(1)}×`}</td>
+                    <td className="text-right font-semibold tabular-nums">{r.rateRatio === null ? '–' : formatTimes(r.rateRatio)}</td>
                     <td className="text-right whitespace-nowrap tabular-nums">
-                      {fmt(r.failures)} <span className="text-ink-500">vs {r.expected.toFixed(1)}</span>
+                      {fmt(r.failures)} <span className="text-ink-500">vs {formatExpected(r.expected)}</span>
+                      {r.figuresScope === 'depots' && <div className="text-xs text-ink-500">on {formatCount(r.vehicles, 'vehicle')}</div>}
                     </td>
                     <td>
                       <span className={VERDICT_BADGE[verdict]}>{VERDICT_LABELS[verdict]}</span>
                     </td>
                     <td>
                       <span className={PATTERN_STATUS_BADGE[r.status as 'new'] ?? 'badge-neutral'}>{PATTERN_STATUS_LABELS[r.status as 'new'] ?? r.status}</span>
+                      {r.overdue && (
+                        <div className="mt-0.5">
+                          <span className="badge-brick" title={r.campaignTargetDate ? `Target date ${formatCalendarDate(r.campaignTargetDate)}` : undefined}>
+                            Campaign overdue
+                          </span>
+                        </div>
+                      )}
                       {r.changes.length > 0 && <div className="mt-0.5 text-xs text-amber-800">Changed: {r.changes.join('; ')}</div>}
                     </td>
                   </tr>

@@ -4,17 +4,19 @@
  * status. Filters, sort and the as-of day live in the URL. For fleet managers and admins it first brings the
  * pattern records up to date with today's fleet-wide report (docs/decisions/011).
  */
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RefreshCw } from 'lucide-react';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { useUrlState } from '@/lib/client/url-state';
+import { formatDay } from '@/lib/patterns/records';
 import type { PatternsReportCohort, PatternStatusValue } from '@/lib/contracts/patterns';
 import { DataTable } from '@/components/ui/DataTable';
 import { SelectField, Toggle } from '@/components/defects/FilterControls';
-import { formatCalendarDate, formatInstant } from '@/components/defects/format';
+import { formatInstant } from '@/components/defects/format';
 import { useContainerWidth } from '@/components/defects/use-container-width';
-import { PATTERNS_WIDE_MIN_PX, patternColumns, patternColumnsCompact, sortCohorts } from './columns';
+import { formatCount } from '@/lib/patterns/explain';
+import { PATTERNS_WIDE_MIN_PX, patternColumns, patternColumnsCompact, RATIO_HELP, sortCohorts } from './columns';
 import { PATTERN_STATUS_LABELS } from './labels';
 import { usePatternsReport, useSyncPatterns } from './queries';
 
@@ -32,10 +34,14 @@ type Props = {
 const FILTER_KEYS = ['status', 'module', 'water', 'all'] as const;
 const PAGE_SIZE = 50;
 
-/** Keep a row under the filters of the URL. */
-export function filterCohorts(rows: PatternsReportCohort[], f: { status?: string; module?: string; water?: string; all?: string }): PatternsReportCohort[] {
+/**
+ * Keep a row under the filters of the URL. Groups that are not significant are hidden unless asked for; today, one
+ * that still has its pattern record stays (the record shows it is no longer significant), but on a past day the
+ * filter holds for every row.
+ */
+export function filterCohorts(rows: PatternsReportCohort[], f: { status?: string; module?: string; water?: string; all?: string }, isToday = true): PatternsReportCohort[] {
   return rows.filter((c) => {
-    if (f.all !== '1' && !c.significant && !c.record) return false;
+    if (f.all !== '1' && !c.significant && !(isToday && c.record)) return false;
     if (f.module && c.moduleCode !== f.module) return false;
     if (f.water && c.verdict !== f.water) return false;
     if (f.status) {
@@ -73,18 +79,42 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
   const ready = !canWrite || !isToday || sync.isSuccess || sync.isError;
   const report = usePatternsReport(asOf, ready);
   const [boxRef, width] = useContainerWidth<HTMLDivElement>();
-  const columns = width !== null && width < PATTERNS_WIDE_MIN_PX ? patternColumnsCompact : patternColumns;
+  const ctx = useMemo(() => ({ asOf: isToday ? '' : asOf }), [isToday, asOf]);
+  const columns = useMemo(() => (width !== null && width < PATTERNS_WIDE_MIN_PX ? patternColumnsCompact(ctx) : patternColumns(ctx)), [width, ctx]);
+  // A click on Refresh gets its own answer ("checked just now…"); the automatic sync on opening says less.
+  const [manualCheck, setManualCheck] = useState<number | null>(null);
   const sort = state.sort || 'qValue';
   const page = Math.max(1, Number(state.page) || 1);
 
   const cohorts = report.data?.cohorts ?? [];
-  const filtered = useMemo(() => sortCohorts(filterCohorts(cohorts, state), sort), [cohorts, state, sort]);
+  const filtered = useMemo(() => sortCohorts(filterCohorts(cohorts, state, isToday), sort), [cohorts, state, sort, isToday]);
   const shown = filtered.slice((page - 1) * PAGE_SIZE, page * PAGE_SIZE);
   const modulesSeen = useMemo(() => [...new Set(cohorts.map((c) => c.moduleCode))].sort(), [cohorts]);
   const significant = cohorts.filter((c) => c.significant).length;
   const water = cohorts.filter((c) => c.waterIngress).length;
   const filteredOn = FILTER_KEYS.some((k) => state[k]);
-  const hiddenNotSignificant = state.all === '1' ? 0 : cohorts.filter((c) => !c.significant && !c.record).length;
+  const hiddenNotSignificant = state.all === '1' ? 0 : cohorts.filter((c) => !c.significant && !(isToday && c.record)).length;
+  const syncText = sync.isPending
+    ? manualCheck
+      ? 'Checking for new data…'
+      : 'Updating pattern records…'
+    : sync.isError
+      ? `Records not updated: ${sync.error.message}`
+      : sync.data
+        ? manualCheck
+          ? sync.data.upToDate
+            ? `Checked at ${new Date(manualCheck).toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}: nothing new since the records were last updated (${formatInstant(sync.data.at)}).`
+            : `Checked at ${new Date(manualCheck).toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}: ${formatCount(sync.data.created, 'new pattern')}, ${formatCount(sync.data.updated, 'record')} refreshed.`
+          : sync.data.upToDate
+            ? `Records up to date (last updated ${formatInstant(sync.data.at)})`
+            : `Records updated: ${formatCount(sync.data.created, 'new pattern')}, ${formatCount(sync.data.updated, 'record')} refreshed`
+        : '';
+  const emptyText =
+    cohorts.length === 0
+      ? 'No module type has failures in your depots yet, so there is nothing to compare.'
+      : filteredOn
+        ? 'No group matches these filters.'
+        : 'No flagged group: no build range of any module type fails clearly above the fleet rate.';
 
   return (
     <div className="space-y-3" ref={boxRef}>
@@ -93,24 +123,29 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
           <h1>Patterns</h1>
           <p className="text-sm text-ink-500" aria-live="polite">
             {report.data
-              ? `As of ${formatCalendarDate(report.data.asOf)} · ${report.data.counts.cohortsTested} groups tested over ${report.data.counts.vehiclesObserved.toLocaleString('en-GB')} vehicles · ${significant} significant, ${water} water ingress`
+              ? `As of ${formatDay(report.data.asOf)} · ${formatCount(report.data.counts.cohortsTested, 'group')} tested over ${formatCount(report.data.counts.vehiclesObserved, 'vehicle')} · ${significant} significant, ${water} water ingress`
               : 'Cohorts of door modules that fail far above the fleet rate, and whether water is the reason'}
+          </p>
+          <p className="text-sm">
+            <a className="link" href="/patterns/method">
+              How Seepline finds patterns
+            </a>
           </p>
         </div>
         {canWrite && (
           <div className="flex items-center gap-2 text-sm text-ink-600">
-            <span aria-live="polite">
-              {sync.isPending
-                ? 'Updating pattern records…'
-                : sync.isError
-                  ? `Records not updated: ${sync.error.message}`
-                  : sync.data
-                    ? sync.data.upToDate
-                      ? `Records up to date (${formatInstant(sync.data.at)})`
-                      : `Records updated: ${sync.data.created} new, ${sync.data.updated} refreshed`
-                    : ''}
+            <span aria-live="polite" role="status">
+              {syncText}
             </span>
-            <button type="button" className="btn-secondary" onClick={() => sync.mutate()} disabled={sync.isPending}>
+            <button
+              type="button"
+              className="btn-secondary"
+              onClick={() => {
+                setManualCheck(Date.now());
+                sync.mutate();
+              }}
+              disabled={sync.isPending}
+            >
               <RefreshCw size={16} aria-hidden="true" /> Refresh records
             </button>
           </div>
@@ -119,8 +154,8 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
 
       {scopeDepots && (
         <p className="rounded-md border border-seep-100 bg-seep-50 px-3 py-2 text-sm text-seep-700">
-          Figures cover your depots only ({scopeDepots.join(', ') || 'none'}). Status and campaigns are decided fleet-wide by fleet managers; open a
-          pattern to see the fleet-wide finding behind them.
+          Figures cover your depots only ({scopeDepots.join(', ') || 'none'}). Status and campaigns are decided fleet-wide by fleet managers; a pattern
+          page shows the pattern's build range with the figures of your depots.
         </p>
       )}
 
@@ -168,13 +203,21 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
       </form>
 
       {!isToday && (
-        <p className="text-sm text-amber-800">
-          Figures as the data stood on {formatCalendarDate(asOf)}; statuses are today's. Pattern records follow today's report only.
+        <p className="rounded-md border border-amber-100 bg-amber-50 px-3 py-2 text-sm text-amber-800">
+          Figures as the data stood on {formatDay(asOf)}. A status is shown when a flagged group belongs to a pattern record, and it is today's
+          status; each row opens its group as of {formatDay(asOf)}.{' '}
+          <button type="button" className="link" onClick={() => update({ asOf: undefined })}>
+            Back to today
+          </button>
         </p>
       )}
 
       {!report.data && !report.error ? (
         <Progress label={sync.isPending ? 'Updating pattern records from today’s report…' : 'Computing the patterns report…'} />
+      ) : report.data && filtered.length === 0 ? (
+        <div className="card card-pad text-center text-ink-600" role="status">
+          {emptyText}
+        </div>
       ) : (
         <DataTable
           caption="Patterns"
@@ -188,13 +231,7 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
           onPage={(p) => update({ page: String(p) }, false)}
           loading={report.isFetching && report.isPlaceholderData}
           error={report.error ? report.error.message : null}
-          emptyText={
-            cohorts.length === 0
-              ? 'No module type has failures in your depots yet, so there is nothing to compare.'
-              : filteredOn
-                ? 'No pattern matches these filters.'
-                : 'No significant pattern: no build range of any module type fails clearly above the fleet rate.'
-          }
+          emptyText={emptyText}
         />
       )}
       {report.data && hiddenNotSignificant > 0 && (
@@ -212,17 +249,33 @@ function PatternsList({ initialParams, canWrite, today, scopeDepots }: Props) {
         <div className="mt-2 space-y-2">
           <p>
             For each module type and moisture-exposure band (low, medium, high — from the depot's climate, parking and washing), Seepline searches every run of
-            consecutive build months for the one whose failures most exceed the fleet's rate. Each row is that build range.
+            consecutive build months for the one whose failures most exceed the rate. Each row is that build range; open a row to see why it is or is not
+            flagged.
+          </p>
+          <p>Two figures say how much more often a group fails, and they are not the same:</p>
+          <ul className="list-disc space-y-1 pl-5">
+            <li>
+              <strong>Rate vs rest</strong> (rate ratio): {RATIO_HELP.rateRatio.replace(/^Rate ratio against the rest: /, '')}
+            </li>
+            <li>
+              <strong>Failures vs expected</strong>: {RATIO_HELP.expected.replace(/^Failures against expected: /, '')} The second line gives it as a ratio; it is
+              smaller than the rate ratio for a group that fails more, because the fleet's rate includes the group's own failures.
+            </li>
+          </ul>
+          <p>
+            <strong>q-value</strong>: the chance-finding probability after paying for the search over build ranges and for testing every group; below 0.05 is{' '}
+            <em>flagged</em>. <strong>Water found</strong>: the share of diagnosed failures where water was found, against the module's other failures.{' '}
+            <strong>Vehicles failing twice or more</strong>: {RATIO_HELP.repeat}
           </p>
           <p>
-            <strong>Rate ratio</strong>: how many times as often these vehicles fail as the rest of the fleet, per vehicle-year, with its exact 95% interval.{' '}
-            <strong>Failures vs expected</strong>: what they had against what the fleet's rate predicts. <strong>q-value</strong>: the chance-finding
-            probability after paying for the search over build ranges and for testing every group; below 0.05 is <em>significant</em>.{' '}
-            <strong>Moisture</strong>: the share of diagnosed failures where water was found, against the module's other failures.
+            <strong>Water ingress</strong> is called when a group is flagged, at least half of its diagnosed failures show water, and more often than the
+            module's other failures beyond chance. A flagged group that fails dry points to another cause.
           </p>
           <p>
-            <strong>Water ingress</strong> is called when a pattern is significant, at least half of its diagnosed failures show water, and more often than
-            the module's other failures (exact test, p below 0.05). A significant pattern that fails dry points to another cause.
+            <a className="link" href="/patterns/method">
+              How Seepline finds patterns
+            </a>{' '}
+            explains the method in full.
           </p>
         </div>
       </details>

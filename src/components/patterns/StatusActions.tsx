@@ -11,6 +11,8 @@ import { CAMPAIGN_KIND_VALUES, CampaignSchema, PATTERN_NOTE_MAX, type PatternRec
 import { Dialog } from '@/components/ui/Dialog';
 import { FormError, FormField, fieldAria } from '@/components/ui/FormField';
 import { ApiError } from '@/lib/client/api-client';
+import { formatDay } from '@/lib/patterns/records';
+
 import { CAMPAIGN_KIND_LABELS, PATTERN_STATUS_LABELS, STATUS_ACTION_LABELS } from './labels';
 import { useChangeStatus } from './queries';
 
@@ -30,11 +32,16 @@ function actionLabel(from: PatternStatusValue, to: Move): string {
   return STATUS_ACTION_LABELS[to];
 }
 
+/** Today (UTC, as the server judges target dates), `YYYY-MM-DD`. */
+const todayUtc = () => new Date().toISOString().slice(0, 10);
+
 function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; move: Move; onClose: () => void }) {
   const change = useChangeStatus(record.id);
   const [formError, setFormError] = useState<string | null>(null);
   const campaign = record.campaign;
   const isCampaign = move === 'campaign_planned';
+  const revising = isCampaign && record.status === 'campaign_planned';
+  const today = todayUtc();
   const schema = FormSchema.superRefine((v, ctx) => {
     if (isCampaign) {
       const r = CampaignSchema.safeParse({ kind: v.kind, note: v.campaignNote, targetDate: v.targetDate });
@@ -45,6 +52,11 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
           const message = field === 'kind' ? 'Choose what the campaign is' : field === 'targetDate' && !v.targetDate ? 'Choose a target date' : i.message;
           ctx.addIssue({ code: 'custom', path: [field], message });
         }
+      } else if (v.targetDate < today) {
+        ctx.addIssue({ code: 'custom', path: ['targetDate'], message: `The target date must be today (${formatDay(today)}) or later` });
+      }
+      if (revising && campaign && v.kind === campaign.kind && v.campaignNote.trim() === campaign.note && v.targetDate === campaign.targetDate && !v.text.trim()) {
+        ctx.addIssue({ code: 'custom', path: ['kind'], message: 'Nothing changed: change what the campaign is, what it does or its target date' });
       }
     }
     if (move === 'dismissed' && v.text.trim().length < 3) ctx.addIssue({ code: 'custom', path: ['text'], message: 'Give the reason for dismissing (at least 3 characters)' });
@@ -72,6 +84,10 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
       await change.mutateAsync(body);
       onClose();
     } catch (e) {
+      // The server's word on a field goes next to the field (a target date judged on the server's day, for one).
+      if (e instanceof ApiError && e.status === 400 && e.issues?.some((i) => i.path === 'campaign.targetDate')) {
+        form.setError('targetDate', { message: e.issues.find((i) => i.path === 'campaign.targetDate')!.message });
+      }
       setFormError(e instanceof ApiError && e.status === 409 ? `${e.message} Close this dialog and reload the page to see the current state.` : e instanceof Error ? e.message : 'That did not work; try again.');
     }
   });
@@ -82,14 +98,18 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
       open
       onClose={onClose}
       title={title}
-      description={`${PATTERN_STATUS_LABELS[record.status]} → ${PATTERN_STATUS_LABELS[move]}, recorded with your name and the time.`}
+      description={
+        revising
+          ? 'Only what you change is recorded, with your name and the time, as one “campaign revised” entry.'
+          : `${PATTERN_STATUS_LABELS[record.status]} → ${PATTERN_STATUS_LABELS[move]}, recorded with your name and the time.`
+      }
       footer={
         <>
           <button type="button" className="btn-secondary" onClick={onClose}>
             Cancel
           </button>
           <button type="submit" form="pattern-status-form" className="btn-primary" disabled={change.isPending}>
-            {change.isPending ? 'Saving…' : isCampaign ? 'Save the campaign' : actionLabel(record.status, move)}
+            {change.isPending ? 'Saving…' : revising ? 'Save the changes' : isCampaign ? 'Save the campaign' : actionLabel(record.status, move)}
           </button>
         </>
       }
@@ -111,8 +131,8 @@ function StatusDialog({ record, move, onClose }: { record: PatternRecordDetail; 
             <FormField id="campaign-note" label="What the campaign does" required error={errors.campaignNote?.message} hint="Which vehicles, which doors, what is checked or replaced, who does it.">
               <textarea rows={3} className="input" {...fieldAria('campaign-note', errors.campaignNote?.message, true)} {...form.register('campaignNote')} />
             </FormField>
-            <FormField id="campaign-target" label="Target date" required error={errors.targetDate?.message}>
-              <input type="date" className="input" {...fieldAria('campaign-target', errors.targetDate?.message)} {...form.register('targetDate')} />
+            <FormField id="campaign-target" label="Target date" required error={errors.targetDate?.message} hint="Today or later.">
+              <input type="date" className="input" min={today} {...fieldAria('campaign-target', errors.targetDate?.message, true)} {...form.register('targetDate')} />
             </FormField>
           </>
         )}

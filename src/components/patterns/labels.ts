@@ -58,6 +58,9 @@ export const BAND_COLOURS: Record<ExposureBand | 'all', string> = {
   all: '#1a5559',
 };
 
+/** Chart colours of a group against the rest of its band. */
+export const COMPARE_COLOURS: Record<'cohort' | 'rest', string> = { cohort: '#b23a2b', rest: '#4d5665' };
+
 /** Trace verdict labels (CONTRACT.md "Traces"). */
 export const TRACE_VERDICT_LABELS: Record<string, string> = {
   healthy: 'Healthy',

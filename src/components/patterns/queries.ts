@@ -5,7 +5,7 @@
  */
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch, toQuery } from '@/lib/client/api-client';
-import type { McfResponse, PatternRecordDetail, PatternsReportResponse, PatternStatusChange, PatternSyncResponse } from '@/lib/contracts/patterns';
+import type { McfResponse, PatternGroupDetail, PatternRecordDetail, PatternsReportResponse, PatternStatusChange, PatternSyncResponse } from '@/lib/contracts/patterns';
 
 /** Query options of the patterns report (`asOf` empty = today on the server). */
 export function patternsReportQueryOptions(asOf: string) {
@@ -46,13 +46,25 @@ export function usePatternRecord(id: number, enabled = true) {
   return useQuery({ ...patternRecordQueryOptions(id), enabled });
 }
 
-/** MCF curves of a module type by exposure band, over the caller's depots. */
-export function useMcf(moduleCode: string, asOf: string) {
+/**
+ * MCF curves of a module type by exposure band over the caller's depots, with the group (band × build range) against
+ * the rest of its band when `compare` is given.
+ */
+export function useMcf(moduleCode: string, asOf: string, compare?: { band: string; buildFrom: string; buildTo: string }) {
   return useQuery({
-    queryKey: ['patterns', 'mcf', moduleCode, asOf],
-    queryFn: ({ signal }) => apiFetch<McfResponse>(`/api/patterns/mcf${toQuery({ module: moduleCode, asOf, by: 'exposureBand' })}`, { signal }),
+    queryKey: ['patterns', 'mcf', moduleCode, asOf, compare?.band ?? '', compare?.buildFrom ?? '', compare?.buildTo ?? ''],
+    queryFn: ({ signal }) => apiFetch<McfResponse>(`/api/patterns/mcf${toQuery({ module: moduleCode, asOf, by: 'exposureBand', ...(compare ?? {}) })}`, { signal }),
     staleTime: 5 * 60_000,
     enabled: moduleCode !== '',
+  });
+}
+
+/** One module type × band of the report as of a day (the read-only group page). */
+export function usePatternGroup(moduleCode: string, band: string, asOf: string) {
+  return useQuery({
+    queryKey: ['patterns', 'group', moduleCode, band, asOf],
+    queryFn: ({ signal }) => apiFetch<PatternGroupDetail>(`/api/patterns/group${toQuery({ module: moduleCode, band, asOf })}`, { signal }),
+    staleTime: 60_000,
   });
 }
 

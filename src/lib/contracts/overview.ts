@@ -54,15 +54,21 @@ export type OverviewPattern = {
   exposureBand: string;
   buildFrom: string;
   buildTo: string;
+  /** Cohort vehicles and failures, over the fleet or, for a depot-scoped reader, their depots only (`figuresScope`). */
+  vehicles: number;
   failures: number;
   expected: number;
   rateRatio: number | null;
+  figuresScope: 'fleet' | 'depots';
   waterIngress: boolean;
   significant: boolean;
   status: string;
   /** The changes since a person last acted on it, in words (empty when none). */
   changes: string[];
-  /** New and significant, or changed since someone last acted on it. */
+  /** The campaign in force is past its target date (`YYYY-MM-DD`, null without a campaign in force). */
+  overdue: boolean;
+  campaignTargetDate: string | null;
+  /** New and significant, changed since someone last acted on it, or a campaign past its target date. */
   needsAttention: boolean;
 };
 
@@ -72,6 +78,8 @@ export type OverviewPatterns = {
   open: number;
   needsAttention: number;
   waterIngressOpen: number;
+  /** Campaigns in force past their target date. */
+  overdue: number;
   /** When the records were last brought up to date with the report (null: never). */
   lastSyncAt: string | null;
   /** Up to OVERVIEW_PATTERN_ROWS open records, those needing attention first, then water ingress, then rate ratio. */

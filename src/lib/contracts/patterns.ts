@@ -3,7 +3,7 @@
  * by the API and the Patterns islands. Edit when a status move needs another field or a response gains one.
  */
 import { z } from 'zod';
-import type { ExposureBand, ModuleBaseline, PatternCohort, PatternsReport } from '@/lib/patterns/types';
+import type { CohortFigures, CohortVerdict, ExposureBand, ModuleBaseline, PatternCohort, PatternsReport } from '@/lib/patterns/types';
 import type { PatternChanges } from '@/lib/patterns/records';
 
 /** Campaign kinds: what a fleet manager decides for a cohort. */
@@ -76,8 +76,11 @@ export type PatternRecordsQuery = z.infer<typeof PatternRecordsQuerySchema>;
 /** A pattern status. */
 export type PatternStatusValue = (typeof PATTERN_STATUS_ENUM)[number];
 
-/** The record a cohort of `GET /api/patterns` belongs to, among those the caller may see. */
-export type CohortRecordRef = { id: number; status: PatternStatusValue; changed: boolean; changes: string[] } | null;
+/**
+ * The record a cohort of `GET /api/patterns` belongs to, among those the caller may see (`overdue`: a campaign in
+ * force whose target date has passed). Status and changes are today's, whatever the report's as-of day.
+ */
+export type CohortRecordRef = { id: number; status: PatternStatusValue; changed: boolean; changes: string[]; overdue: boolean } | null;
 
 /** One cohort of `GET /api/patterns` (the contract's fields and the engine's extras). */
 export type PatternsReportCohort = Omit<PatternCohort, 'vehicleIds' | 'failureIds' | 'repeatVehicleIds' | 'byMonth'> & { record: CohortRecordRef };
@@ -85,8 +88,14 @@ export type PatternsReportCohort = Omit<PatternCohort, 'vehicleIds' | 'failureId
 /** `GET /api/patterns`. */
 export type PatternsReportResponse = Omit<PatternsReport, 'cohorts'> & { cohorts: PatternsReportCohort[] };
 
-/** A campaign as recorded. */
-export type CampaignRecord = { kind: CampaignKind; note: string; targetDate: string };
+/**
+ * A campaign as recorded: `inForce` while the pattern's status is "campaign planned" (afterwards it is the last
+ * campaign), `overdue` when in force and its target date is before today.
+ */
+export type CampaignRecord = { kind: CampaignKind; note: string; targetDate: string; inForce: boolean; overdue: boolean };
+
+/** Whose data a record's figures are computed from: the whole fleet, or the caller's depots only (docs/decisions/013). */
+export type FiguresScope = 'fleet' | 'depots';
 
 /** A pattern record as lists show it. */
 export type PatternRecordSummary = {
@@ -106,11 +115,16 @@ export type PatternRecordSummary = {
   rateRatio: number | null;
   ciLow: number | null;
   ciHigh: number | null;
-  qValue: number;
+  /** Null when the figures are the caller's depots' (no search was run over them). */
+  qValue: number | null;
   moistureShare: number;
   repeatVehicles: number;
+  /** The fleet-wide verdict of the record (part of its identity, whoever reads it). */
   significant: boolean;
   waterIngress: boolean;
+  /** Whose data `vehicles` … `repeatVehicles` and `changes.newFailures` count; `depotCodes` names the caller's depots. */
+  figuresScope: FiguresScope;
+  depotCodes: string[] | null;
   status: PatternStatusValue;
   statusReason: string | null;
   statusAt: string | null;
@@ -172,26 +186,47 @@ export type PatternDefectRow = {
   traces: { id: number; verdict: string; fileName: string | null }[];
 };
 
-/** One audit row of a record's history. */
+/**
+ * One entry of a record's history: one action (a status move, a campaign revision, a change the report found), with
+ * the fields it changed. `action`: found, status, campaign_revised or report; `text` for entries without fields.
+ */
 export type PatternHistoryRow = {
   id: number;
   at: string;
   who: string;
   action: string;
-  field: string | null;
-  oldValue: string | null;
-  newValue: string | null;
+  text: string | null;
+  changes: { field: string; oldValue: string | null; newValue: string | null }[];
+};
+
+/** The scan's figures of a report's cohort: how its build range was found and how unlikely it is by chance. */
+export type CohortSearch = Pick<PatternCohort, 'pValue' | 'qValue' | 'scanLlr' | 'scanExpected' | 'mcP' | 'gumbelP' | 'pValueMethod' | 'replicates' | 'windowsTested'>;
+
+/**
+ * A cohort as the pattern and group pages show it: its figures over the data the caller may see, the verdict, and
+ * the scan (`search`), which is null when a record's fleet-wide range is read over the caller's depots.
+ */
+export type CohortView = Omit<CohortFigures, 'vehicleIds' | 'failureIds' | 'repeatVehicleIds'> & {
+  significant: boolean;
+  waterIngress: boolean;
+  verdict: CohortVerdict;
+  search: CohortSearch | null;
 };
 
 /** `GET /api/patterns/{id}`. */
 export type PatternRecordDetail = PatternRecordSummary & {
   statusBy: { id: number; name: string } | null;
   module: { code: string; name: string | null; function: string | null; partNumber: string | null; supplier: string | null };
+  /** The module's baseline over the data the figures come from (the fleet, or the caller's depots). */
   baseline: ModuleBaseline | null;
-  cohort: Omit<PatternCohort, 'vehicleIds' | 'failureIds' | 'repeatVehicleIds'>;
+  cohort: CohortView;
   method: PatternsReport['method'];
   /** Whose depots the vehicle and defect lists cover. */
   scope: 'all' | 'depots';
+  /** When the last campaign was resolved (null while in force or never resolved). */
+  campaignResolvedAt: string | null;
+  /** Groups the fleet-wide report tested (false-discovery control ran across them); null for depot figures. */
+  cohortsTested: number | null;
   vehicleList: PatternVehicleRow[];
   defectList: PatternDefectRow[];
   history: PatternHistoryRow[];
@@ -200,8 +235,42 @@ export type PatternRecordDetail = PatternRecordSummary & {
   lastSync: PatternSyncRef;
 };
 
+/** `GET /api/patterns/group`: one module type × band of the report as of a day, read only (no record actions). */
+export type PatternGroupDetail = {
+  asOf: string;
+  today: string;
+  module: PatternRecordDetail['module'];
+  baseline: ModuleBaseline | null;
+  cohort: CohortView;
+  method: PatternsReport['method'];
+  scope: 'all' | 'depots';
+  depotCodes: string[] | null;
+  /** How many groups the report tested (false-discovery control runs across all of them). */
+  cohortsTested: number;
+  vehicleList: PatternVehicleRow[];
+  defectList: PatternDefectRow[];
+  /** The pattern record this group belongs to (today's status), if any. */
+  record: CohortRecordRef;
+};
+
+/** Query of `GET /api/patterns/group`. */
+export const PatternGroupQuerySchema = z.object({
+  module: z.string().trim().min(1, 'module is required').max(32),
+  band: z.enum(['low', 'medium', 'high'], 'band must be low, medium or high'),
+  asOf: z.string().optional(),
+});
+
 /** `POST /api/patterns/sync`. */
 export type PatternSyncResponse = { syncId: number; asOf: string; upToDate: boolean; created: number; updated: number; at: string };
 
-/** `GET /api/patterns/mcf`. */
-export type McfResponse = { series: { key: 'all' | ExposureBand; points: { ageDays: number; mcf: number; lower: number; upper: number; atRisk: number; events: number; variance: number; varianceNaive: number }[] }[] };
+/** One point of an MCF curve. */
+export type McfPointJson = { ageDays: number; mcf: number; lower: number; upper: number; atRisk: number; events: number; variance: number; varianceNaive: number };
+
+/**
+ * `GET /api/patterns/mcf`. With the optional `band`, `buildFrom` and `buildTo`, `compare` adds the curve of the
+ * cohort (that band's vehicles built in the range) and of the rest of its band.
+ */
+export type McfResponse = {
+  series: { key: 'all' | ExposureBand; points: McfPointJson[] }[];
+  compare?: { band: ExposureBand; buildFrom: string; buildTo: string; series: { key: 'cohort' | 'rest'; points: McfPointJson[] }[] };
+};

@@ -1,15 +1,16 @@
 /**
  * Plain-words explanation of a cohort for fleet managers (the pattern page and the evidence pack say the same
- * thing): how much more often it fails, how unlikely that is by chance after the search, whether the moisture
- * evidence points to water and why, and whether failures come faster with age. Numbers stay exact one click
- * deeper; here they are rounded for reading. Edit with docs/patterns-method.md when a rule changes.
+ * thing): how much more often it fails — against the fleet's rate and against the rest of the fleet, the two ratios
+ * named apart — whether that could be chance, whether the moisture evidence points to water, and whether failures
+ * come faster with age. The first level has no statistics jargon; each part also carries the exact figures for the
+ * level one click deeper ("The statistics behind this"). Edit with docs/patterns-method.md when a rule changes.
  */
 import { FDR_LEVEL, TREND_ALPHA, WATER_SHARE_ALPHA, WATER_SHARE_MIN } from './rules';
-import type { ModuleTrend, PatternCohort } from './types';
+import type { CohortFigures, ModuleTrend } from './types';
 
 const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
 
-/** A probability for reading: two significant figures, or "3.1×10⁻⁷" below 0.001; "< 10⁻¹⁶" at the floor. */
+/** A probability for the statistics level: two significant figures, or "3.1×10⁻⁷" below 0.001; "< 10⁻¹⁶" at the floor. */
 export function formatProbability(p: number): string {
   if (!Number.isFinite(p)) return '–';
   if (p >= 0.9995) return '1';
@@ -26,12 +27,20 @@ export function formatStat(name: string, p: number): string {
   return f.startsWith('<') ? `${name} ${f}` : `${name} = ${f}`;
 }
 
-/** A rate ratio for reading: "3.9" (two significant figures below 10, whole numbers above). */
+/**
+ * A ratio for reading, one rule everywhere: two significant figures ("3.9", "0.94"), whole numbers from 10 ("10",
+ * "19"); "∞" when unbounded.
+ */
 export function formatRatio(x: number | null): string {
-  if (x === null) return '∞';
-  if (!Number.isFinite(x)) return '∞';
-  if (x >= 10) return x.toFixed(0);
-  return x.toFixed(x >= 1 ? 1 : 2);
+  if (x === null || !Number.isFinite(x)) return '∞';
+  if (x >= 9.95) return x.toFixed(0);
+  if (x >= 1) return x.toFixed(1);
+  return Number(x.toPrecision(2)).toFixed(x >= 0.1 ? 2 : 3);
+}
+
+/** A ratio with its sign of times, "3.9×". */
+export function formatTimes(x: number | null): string {
+  return `${formatRatio(x)}×`;
 }
 
 /** A share as a whole percentage, "87%". */
@@ -39,21 +48,27 @@ export function formatShare(x: number | null): string {
   return x === null ? '–' : `${Math.round(x * 100)}%`;
 }
 
-/** The facts the explanation reads (a subset of the engine's cohort). */
+/** An expected count for reading: one decimal below 10, whole above ("16.8" stays "17"). */
+export function formatExpected(x: number): string {
+  return x < 10 ? x.toFixed(1) : x.toFixed(0);
+}
+
+/** "1 vehicle", "2 vehicles", "1,204 failures". */
+export function formatCount(n: number, one: string, many = `${one}s`): string {
+  return `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
+}
+
+/** The facts the explanation reads: a cohort's figures, its verdict, and the scan when one was run. */
 export type ExplainCohort = Pick<
-  PatternCohort,
+  CohortFigures,
   | 'moduleCode'
-  | 'exposureBand'
   | 'vehicles'
   | 'failures'
   | 'expected'
+  | 'ratioToFleet'
   | 'rateRatio'
   | 'ciLow'
   | 'ciHigh'
-  | 'pValue'
-  | 'qValue'
-  | 'significant'
-  | 'waterIngress'
   | 'diagnosedFailures'
   | 'moistureFailures'
   | 'moistureShare'
@@ -62,83 +77,153 @@ export type ExplainCohort = Pick<
   | 'restMoistureFailures'
   | 'moistureP'
   | 'repeatVehicles'
->;
+> & {
+  significant: boolean;
+  waterIngress: boolean;
+  /** The scan's p and q; null when the figures are a record's range read over some depots (nothing searched). */
+  search: { pValue: number; qValue: number } | null;
+};
+
+/** Whose figures are explained: the whole fleet the report covers, or the reader's depots. */
+export type ExplainScope = 'fleet' | 'depots';
 
 /** One condition of the water-ingress rule and whether the cohort meets it. */
 export interface RuleCheck {
   label: string;
   met: boolean;
+  /** In plain words (first level). */
   detail: string;
+  /** The exact statistic behind it (one level deeper). */
+  stat: string;
 }
 
 /** The explanation of a cohort. */
 export interface PatternExplanation {
-  /** How much more often it fails (one sentence). */
+  /** How much more often it fails, with both ratios named (plain words). */
   rate: string;
-  /** Whether that could be chance, after the search (one sentence). */
-  chance: string;
-  /** Repeat vehicles (one sentence, or null when none). */
+  /** Whether that could be chance after the search, in plain words; null when nothing was searched. */
+  chance: string | null;
+  /** The same with the exact p and q (deeper level); null when nothing was searched. */
+  chanceStat: string | null;
+  /** Vehicles that failed twice or more (one sentence, or null when none). */
   repeats: string | null;
-  /** The moisture evidence in words. */
+  /** The moisture evidence in plain words. */
   moisture: string;
+  /** The moisture comparison with its exact test (deeper level); null when nothing is diagnosed. */
+  moistureStat: string | null;
   /** The three conditions of the water-ingress rule. */
   waterRule: RuleCheck[];
   /** Why it is or is not called water ingress. */
   waterVerdict: string;
 }
 
-const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
+/** Below this q a cohort is "far beyond chance" in words (it is significant below FDR_LEVEL). */
+const FAR_BEYOND_CHANCE = 0.001;
 
 /** Explain a cohort in plain words (see the file comment). */
-export function explainCohort(c: ExplainCohort): PatternExplanation {
-  const expected = c.expected < 10 ? c.expected.toFixed(1) : c.expected.toFixed(0);
+export function explainCohort(c: ExplainCohort, scope: ExplainScope = 'fleet'): PatternExplanation {
+  const mine = scope === 'depots';
+  const fleetRate = mine ? `your depots' rate for ${c.moduleCode}` : `the fleet's rate for ${c.moduleCode}`;
+  const rest = mine ? 'the rest of the vehicles at your depots' : 'the rest of the fleet';
+  const times = c.ratioToFleet === null ? null : `${formatRatio(c.ratioToFleet)} times that`;
+  const first = `${formatCount(c.failures, 'failure')} on ${formatCount(c.vehicles, 'vehicle')}, where ${formatExpected(c.expected)} would be expected at ${fleetRate}${times ? ` (${times})` : ''}.`;
   const interval = c.ciHigh === null ? `at least ${formatRatio(c.ciLow)} times` : `between ${formatRatio(c.ciLow)} and ${formatRatio(c.ciHigh)} times`;
-  const rate =
-    c.rateRatio === null
-      ? `${plural(c.failures, 'failure')} on ${plural(c.vehicles, 'vehicle')} where ${expected} would be expected at the fleet's rate, and none on the rest of the fleet.`
-      : `${plural(c.failures, 'failure')} on ${plural(c.vehicles, 'vehicle')} where ${expected} would be expected at the fleet's rate: these vehicles fail ${formatRatio(c.rateRatio)} times as often as the rest of the fleet (95% confidence: ${interval}).`;
-  const chance = c.significant
-    ? `If build month made no difference, a cluster this strong would turn up by chance with probability ${formatProbability(c.pValue)}, even allowing for every build range searched; across all groups tested the false-discovery-adjusted value is ${formatStat('q', c.qValue)}, below the ${FDR_LEVEL} the report requires, so this is flagged.`
-    : `A cluster this strong would turn up by chance with probability ${formatProbability(c.pValue)} once every build range searched is allowed for (${formatStat('q', c.qValue)} across all groups tested), which is not below ${FDR_LEVEL}: it could well be chance, so it is not flagged.`;
-  const repeats = c.repeatVehicles > 0 ? `${plural(c.repeatVehicles, 'vehicle')} failed more than once.` : null;
+  const second =
+    c.vehicles === 0
+      ? ''
+      : c.rateRatio === null
+        ? ` ${rest[0]!.toUpperCase()}${rest.slice(1)} had none, so there is no rate to compare them with.`
+        : ` Compared with ${rest} (every vehicle outside this group), they fail ${formatRatio(c.rateRatio)} times as often (95% confidence: ${interval}); the two figures differ because the ${mine ? "depots'" : "fleet's"} rate includes these vehicles' own failures.`;
+  const rate = `${first}${second}`;
 
-  const rest = c.moistureShareRest === null ? 'no other failures of this module have been diagnosed' : `${formatShare(c.moistureShareRest)} (${c.restMoistureFailures} of ${c.restDiagnosedFailures}) of this module's other diagnosed failures`;
-  const moisture =
+  let chance: string | null = null;
+  let chanceStat: string | null = null;
+  if (c.search) {
+    const { pValue, qValue } = c.search;
+    chance = c.significant
+      ? qValue < FAR_BEYOND_CHANCE
+        ? 'Far beyond chance: even allowing for every build range searched and every group tested, a cluster this strong would almost never appear by chance, so it is flagged.'
+        : 'Unlikely to be chance: even allowing for every build range searched and every group tested, a cluster this strong would seldom appear by chance, so it is flagged.'
+      : 'Could well be chance: once every build range searched and every group tested is allowed for, a cluster this strong turns up by chance too often to be called a pattern, so it is not flagged.';
+    chanceStat = `If build month made no difference, a cluster this strong would turn up by chance with probability ${formatProbability(pValue)} (scan p, allowing for the build ranges searched); across all groups tested the false-discovery-adjusted value is ${formatStat('q', qValue)}, ${qValue < FDR_LEVEL ? 'below' : 'not below'} the ${FDR_LEVEL} the report requires.`;
+  }
+  const repeats = c.repeatVehicles > 0 ? `${formatCount(c.repeatVehicles, 'vehicle')} of the group failed twice or more.` : null;
+
+  const others = "this module's other diagnosed failures";
+  const restShare = c.moistureShareRest === null ? null : `${formatShare(c.moistureShareRest)} of ${others}`;
+  const found = `water was found in ${c.moistureFailures} of the ${formatCount(c.diagnosedFailures, 'diagnosed failure')} (${formatShare(c.moistureShare)})`;
+  let moisture: string;
+  if (c.diagnosedFailures === 0) moisture = 'None of these failures has been diagnosed yet, so there is no moisture evidence either way.';
+  else if (restShare === null) moisture = `${cap(found)}; no other failures of this module have been diagnosed to compare with.`;
+  else if (c.moistureShareRest !== null && c.moistureShare <= c.moistureShareRest) moisture = `Not wetter than the rest: ${found}, against ${restShare}.`;
+  else if (c.moistureP < WATER_SHARE_ALPHA)
+    moisture = `${cap(found)}, against ${restShare} — ${c.moistureP < FAR_BEYOND_CHANCE ? 'far more often than chance would explain' : 'more often than chance would explain'}.`;
+  else moisture = `${cap(found)}, against ${restShare}: somewhat more often, but not clearly more than chance would give.`;
+  const moistureStat =
     c.diagnosedFailures === 0
-      ? `None of these failures has been diagnosed yet, so there is no moisture evidence either way.`
-      : `Water was found (moisture traces, corrosion or standing water, or a root cause of water ingress) in ${c.moistureFailures} of the ${plural(c.diagnosedFailures, 'diagnosed failure')} (${formatShare(c.moistureShare)}), against ${rest}. The chance of a difference at least this large if water played no special part is ${formatStat('p', c.moistureP)} (one-sided Fisher exact test).`;
+      ? null
+      : `${c.moistureFailures} wet of ${c.diagnosedFailures} diagnosed in the group; ${c.restMoistureFailures} of ${c.restDiagnosedFailures} in the rest of the module's failures; one-sided Fisher exact test ${formatStat('p', c.moistureP)} (the chance of the group being at least this much wetter if water played no special part).`;
 
+  const wetter = c.diagnosedFailures > 0 && c.moistureP < WATER_SHARE_ALPHA;
   const waterRule: RuleCheck[] = [
-    { label: 'Significant after false-discovery control', met: c.significant, detail: `${formatStat('q', c.qValue)} (needs < ${FDR_LEVEL})` },
+    {
+      label: c.search ? `Fails above ${mine ? "your depots'" : 'the fleet'} rate, beyond chance` : 'Flagged by the fleet-wide report',
+      met: c.significant,
+      detail: c.significant ? 'yes' : 'no',
+      stat: c.search ? `${formatStat('q', c.search.qValue)} (needs < ${FDR_LEVEL})` : 'decided on the whole fleet',
+    },
     {
       label: `At least ${formatShare(WATER_SHARE_MIN)} of diagnosed failures show water`,
       met: c.diagnosedFailures > 0 && c.moistureShare >= WATER_SHARE_MIN,
       detail: c.diagnosedFailures > 0 ? `${formatShare(c.moistureShare)} (${c.moistureFailures} of ${c.diagnosedFailures})` : 'none diagnosed',
+      stat: c.diagnosedFailures > 0 ? `${c.moistureFailures} of ${c.diagnosedFailures}` : '–',
     },
-    { label: "Wetter than the module's other failures", met: c.moistureP < WATER_SHARE_ALPHA, detail: `${formatStat('p', c.moistureP)} (needs < ${WATER_SHARE_ALPHA})` },
+    {
+      label: "Wetter than the module's other failures, beyond chance",
+      met: wetter,
+      detail: c.diagnosedFailures === 0 ? 'none diagnosed' : `${formatShare(c.moistureShare)} against ${formatShare(c.moistureShareRest)}`,
+      stat: `${formatStat('p', c.moistureP)} (needs < ${WATER_SHARE_ALPHA})`,
+    },
   ];
   const unmet = waterRule.filter((r) => !r.met).map((r) => r.label.charAt(0).toLowerCase() + r.label.slice(1));
+  // Without a search of its own (a record's range read over some depots) the verdict is the fleet-wide one.
+  const fleetVerdict = c.search === null;
   const waterVerdict = c.waterIngress
-    ? 'Called water ingress: the cohort is significant, most of its diagnosed failures show water, and more often than the rest of this module’s failures.'
+    ? fleetVerdict
+      ? 'Called water ingress on the whole fleet: most of its diagnosed failures show water, more often than the rest of this module’s failures.'
+      : `Called water ingress: the group fails far above ${mine ? "your depots'" : 'the fleet'} rate, most of its diagnosed failures show water, and more often than the rest of this module’s failures.`
     : !c.significant
-      ? 'Not called water ingress: the cohort is not significant, so no verdict on its cause is given.'
-      : `Not called water ingress — a significant but dry pattern. It fails: ${unmet.join('; ')}. Look for another cause (mechanical wear, a supplier batch, wiring).`;
-  return { rate, chance, repeats, moisture, waterRule, waterVerdict };
+      ? 'Not called water ingress: the group is not flagged, so no verdict on its cause is given.'
+      : fleetVerdict
+        ? 'Not called water ingress on the whole fleet — a pattern that fails dry. Look for another cause (mechanical wear, a supplier batch, wiring).'
+        : `Not called water ingress — a pattern that fails dry. It does not meet: ${unmet.join('; ')}. Look for another cause (mechanical wear, a supplier batch, wiring).`;
+  return { rate, chance, chanceStat, repeats, moisture, moistureStat, waterRule, waterVerdict };
 }
 
-/** Trend tests in plain words: are failures coming faster as the vehicles age? */
-export function explainTrend(t: ModuleTrend, subject: string): string {
-  if (t.laplaceU === null || t.events < 2) return `Too few failures ${subject} to test whether they come faster with age.`;
-  const figures = `Laplace U = ${t.laplaceU.toFixed(2)}, ${formatStat('p', t.laplacePTwoSided ?? 1)}; MIL-HDBK-189 χ² = ${(t.milHdbkChiSquare ?? 0).toFixed(1)} on ${t.milHdbkDf} degrees of freedom, ${formatStat('p', t.milHdbkPTwoSided ?? 1)}; power-law shape β = ${t.beta === null ? '–' : t.beta.toFixed(2)}`;
-  if (t.direction === 'increasing') return `Yes: failures ${subject} come faster as the vehicles age — both tests reject a steady rate (${figures}).`;
-  if (t.direction === 'decreasing') return `No, the opposite: failures ${subject} come more slowly as the vehicles age — both tests reject a steady rate (${figures}).`;
+function cap(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
+/** The trend in plain words (first level) and the exact tests (deeper level). */
+export interface TrendExplanation {
+  /** Are failures coming faster as the vehicles age? In words, without statistics. */
+  plain: string;
+  /** The tests and their figures; null when there are too few failures to test. */
+  stat: string | null;
+}
+
+/** Trend tests in plain words: are failures coming faster as the vehicles age? `subject`: "in this group". */
+export function explainTrend(t: ModuleTrend, subject: string): TrendExplanation {
+  if (t.laplaceU === null || t.events < 2) return { plain: `Too few failures ${subject} to tell whether they come faster with age.`, stat: null };
+  const stat = `Laplace U = ${t.laplaceU.toFixed(2)}, ${formatStat('p', t.laplacePTwoSided ?? 1)}; MIL-HDBK-189 χ² = ${(t.milHdbkChiSquare ?? 0).toFixed(1)} on ${t.milHdbkDf} degrees of freedom, ${formatStat('p', t.milHdbkPTwoSided ?? 1)}; power-law shape β = ${t.beta === null ? '–' : t.beta.toFixed(2)}. A trend is called only when both tests reject a steady rate at ${TREND_ALPHA} (two-sided) in the same direction.`;
+  if (t.direction === 'increasing') return { plain: `Failures ${subject} are coming faster as these vehicles age.`, stat };
+  if (t.direction === 'decreasing') return { plain: `Failures ${subject} are coming more slowly as these vehicles age.`, stat };
   const laplaceSays = (t.laplacePTwoSided ?? 1) < TREND_ALPHA;
   const milSays = (t.milHdbkPTwoSided ?? 1) < TREND_ALPHA;
   if (laplaceSays !== milSays) {
     // MIL-HDBK-189 points to faster failures when β > 1 (χ² below its 2N degrees of freedom).
     const faster = laplaceSays ? t.laplaceU > 0 : (t.beta ?? 1) > 1;
-    const [one, other] = laplaceSays ? ['Laplace', 'MIL-HDBK-189'] : ['MIL-HDBK-189', 'Laplace'];
-    return `Not clear: the ${one} test points to failures ${subject} coming ${faster ? 'faster' : 'more slowly'} with age but the ${other} test does not, and both must agree before a trend is called (${figures}).`;
+    return { plain: `Not clear: one of the two tests hints that failures ${subject} come ${faster ? 'faster' : 'more slowly'} as the vehicles age, the other does not.`, stat };
   }
-  return `No clear sign: failures ${subject} come at a steady rate as far as the tests can tell (${figures}).`;
+  return { plain: `No clear sign that failures ${subject} come faster or slower as the vehicles age.`, stat };
 }

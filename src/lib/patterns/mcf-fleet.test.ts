@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { buildMcfUnits, computeMcfSeries, UnknownModuleError } from './mcf-fleet';
+import { buildMcfUnits, computeMcfCompare, computeMcfSeries, UnknownModuleError } from './mcf-fleet';
 import type { PatternsInput } from './types';
 
 /** Three vehicles at a wet depot (high band with outdoor parking, low band indoors at the dry depot). */
@@ -72,5 +72,23 @@ describe('computeMcfSeries', () => {
     expect(series.map((s) => s.key)).toEqual(['low', 'high']);
     expect(series[0]?.points).toEqual([]);
     expect(series[1]?.points.map((p) => p.ageDays)).toEqual([10, 20, 30]);
+  });
+});
+
+describe('computeMcfCompare', () => {
+  it('the cohort (high band, built 2020-01) against the rest of its band (built 2020-02), worked by hand', () => {
+    // As of 2020-04-10: A (built 2020-01) fails at ages 10 and 30, end 40; B (2020-02) fails at age 20, end 20.
+    // Cohort: one unit, MCF(10) = 1, MCF(30) = 2. Rest: one unit, MCF(20) = 1 (at risk on its last day).
+    const s = computeMcfCompare(fleet(), { moduleCode: 'WLR-2', asOf: '2020-04-10', band: 'high', buildFrom: '2020-01', buildTo: '2020-01' });
+    expect(s.map((x) => [x.key, x.points.map((p) => [p.ageDays, p.mcf, p.atRisk])])).toEqual([
+      ['cohort', [[10, 1, 1], [30, 2, 1]]],
+      ['rest', [[20, 1, 1]]],
+    ]);
+  });
+
+  it('leaves out a curve without vehicles, and refuses a range that ends before it starts', () => {
+    const s = computeMcfCompare(fleet(), { moduleCode: 'WLR-2', asOf: '2020-04-10', band: 'high', buildFrom: '2020-01', buildTo: '2020-02' });
+    expect(s.map((x) => x.key)).toEqual(['cohort']);
+    expect(() => computeMcfCompare(fleet(), { moduleCode: 'WLR-2', asOf: '2020-04-10', band: 'high', buildFrom: '2020-02', buildTo: '2020-01' })).toThrow(/ends before/);
   });
 });

@@ -3,6 +3,7 @@
  * age = days from its in-service date, end age = days to min(retired, asOf), events = failures of that module type
  * (any position) reported up to the end age; optionally one series per exposure band.
  */
+import { toMonthIndex } from './calendar';
 import { bandName, indexFleet, parseAsOf, type FleetIndex, type ModuleFailures } from './fleet-index';
 import { computeMcf, type McfOptions, type McfPoint, type McfUnit } from './mcf';
 import { EXPOSURE_BANDS, PatternsInputError, type ExposureBand, type PatternsInput } from './types';
@@ -21,11 +22,12 @@ function moduleIndexOf(input: PatternsInput, moduleCode: string): number {
   return index;
 }
 
-function unitsFromFleet(input: PatternsInput, fleet: FleetIndex, moduleIndex: number, asOf: string, bandIndex: number): McfUnit[] {
+function unitsFromFleet(input: PatternsInput, fleet: FleetIndex, moduleIndex: number, asOf: string, bandIndex: number, keep?: (i: number) => boolean): McfUnit[] {
   const units: McfUnit[] = [];
   const unitOfVehicle = new Int32Array(fleet.vehicleIds.length).fill(-1);
   input.vehicles.forEach((v, i) => {
     if (bandIndex >= 0 && fleet.bandIndex[i] !== bandIndex) return;
+    if (keep && !keep(i)) return;
     // observedDays is 0 both for "in service on asOf" and for "not yet in service / retired before it"; only the
     // first is a unit (end age 0).
     if ((fleet.observedDays[i] as number) === 0 && (v.inServiceDate !== asOf || (v.retiredDate !== null && v.retiredDate < asOf))) return;
@@ -78,4 +80,37 @@ export function computeMcfSeries(
     if (units.length > 0) series.push({ key: bandName(b), points: computeMcf({ units }, options) });
   });
   return { series };
+}
+
+/** One curve of the cohort comparison. */
+export interface McfCompareSeries {
+  key: 'cohort' | 'rest';
+  points: McfPoint[];
+}
+
+/**
+ * The MCF of a cohort against the rest of its band: the band's vehicles built in buildFrom..buildTo (inclusive
+ * months) and the band's other vehicles, each a curve of the module's failures (same units and events as
+ * computeMcfSeries). A curve without vehicles is left out.
+ * @throws UnknownModuleError when moduleCode is not in input.modules; PatternsInputError on a bad band or range
+ */
+export function computeMcfCompare(
+  input: PatternsInput,
+  query: { moduleCode: string; asOf: string; band: ExposureBand; buildFrom: string; buildTo: string },
+  options: McfOptions = {},
+): McfCompareSeries[] {
+  const moduleIndex = moduleIndexOf(input, query.moduleCode);
+  const band = EXPOSURE_BANDS.indexOf(query.band);
+  if (band < 0) throw new PatternsInputError(`unknown band ${JSON.stringify(query.band)}`);
+  const from = toMonthIndex(query.buildFrom);
+  const to = toMonthIndex(query.buildTo);
+  if (to < from) throw new PatternsInputError(`build range ${query.buildFrom}..${query.buildTo} ends before it starts`);
+  const fleet = indexFleet(input, parseAsOf(query.asOf));
+  const inRange = (i: number) => (fleet.monthIndex[i] as number) >= from && (fleet.monthIndex[i] as number) <= to;
+  const out: McfCompareSeries[] = [];
+  const cohort = unitsFromFleet(input, fleet, moduleIndex, query.asOf, band, inRange);
+  if (cohort.length > 0) out.push({ key: 'cohort', points: computeMcf({ units: cohort }, options) });
+  const rest = unitsFromFleet(input, fleet, moduleIndex, query.asOf, band, (i) => !inRange(i));
+  if (rest.length > 0) out.push({ key: 'rest', points: computeMcf({ units: rest }, options) });
+  return out;
 }

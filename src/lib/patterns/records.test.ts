@@ -3,7 +3,12 @@ import {
   canMovePatternStatus,
   computePatternChanges,
   describeRangeChange,
+  diffCampaign,
+  groupPatternHistory,
+  isCampaignOverdue,
   formatBuildRange,
+  formatDay,
+  formatMonth,
   matchPatternRecord,
   overlapMonths,
   planPatternSync,
@@ -139,5 +144,66 @@ describe('what changed since a person acted', () => {
   });
   it('one new failure reads in the singular', () => {
     expect(computePatternChanges({ ...base, failures: 54 }).summary).toEqual(['1 new failure']);
+  });
+});
+
+describe('campaigns: overdue and revisions', () => {
+  it('is overdue only while in force and after its target day', () => {
+    expect(isCampaignOverdue('campaign_planned', '2026-12-01', '2026-12-02')).toBe(true);
+    expect(isCampaignOverdue('campaign_planned', '2026-12-02', '2026-12-02')).toBe(false);
+    expect(isCampaignOverdue('resolved', '2020-01-01', '2026-12-02')).toBe(false);
+    expect(isCampaignOverdue('acknowledged', '2020-01-01', '2026-12-02')).toBe(false);
+    expect(isCampaignOverdue('campaign_planned', null, '2026-12-02')).toBe(false);
+  });
+
+  it('a revision lists only the fields that changed, in form order', () => {
+    const before = { kind: 'inspect_cohort', note: 'Inspect', targetDate: '2027-01-31' };
+    expect(diffCampaign(before, before)).toEqual([]);
+    expect(diffCampaign(before, { ...before, targetDate: '2027-02-28' })).toEqual([{ field: 'campaignTargetDate', oldValue: '2027-01-31', newValue: '2027-02-28' }]);
+    expect(diffCampaign(null, before).map((c) => [c.field, c.oldValue])).toEqual([
+      ['campaignKind', null],
+      ['campaignNote', null],
+      ['campaignTargetDate', null],
+    ]);
+  });
+});
+
+describe('groupPatternHistory', () => {
+  const row = (id: number, at: string, action: string, field: string | null, newValue: string | null, who = 'Ann') => ({ id, at, who, action, field, oldValue: null, newValue });
+  it('one entry per action: rows of one moment, person and action together, in the order written', () => {
+    // Newest first, as the audit list answers.
+    const rows = [
+      row(9, '2026-12-02T10:00:00Z', 'campaign_revised', 'note', 'Torn membranes'),
+      row(8, '2026-12-02T10:00:00Z', 'campaign_revised', 'campaignTargetDate', '2027-02-28'),
+      row(7, '2026-12-01T09:00:00Z', 'status', 'note', 'Checking'),
+      row(6, '2026-12-01T09:00:00Z', 'status', 'status', 'acknowledged'),
+      row(5, '2026-12-01T09:00:00Z', 'status', 'status', 'dismissed', 'Bob'),
+      row(1, '2026-11-30T08:00:00Z', 'found', null, 'WLR-2 high'),
+    ];
+    expect(groupPatternHistory(rows).map((e) => [e.id, e.action, e.who, e.text, e.changes.map((c) => c.field)])).toEqual([
+      [8, 'campaign_revised', 'Ann', null, ['campaignTargetDate', 'note']],
+      [6, 'status', 'Ann', null, ['status', 'note']],
+      [5, 'status', 'Bob', null, ['status']],
+      [1, 'found', 'Ann', 'WLR-2 high', []],
+    ]);
+    expect(groupPatternHistory([])).toEqual([]);
+  });
+});
+
+describe('computePatternChanges over part of the fleet', () => {
+  it('says where the new failures are', () => {
+    const c = computePatternChanges({ buildFrom: '2022-10', buildTo: '2023-03', failures: 3, significant: true, actedFailures: 0, actedBuildFrom: '2022-10', actedBuildTo: '2023-03', inLatestReport: true }, 'in your depots');
+    expect(c.summary).toEqual(['3 new failures in your depots']);
+  });
+});
+
+describe('formatMonth and formatDay', () => {
+  it('one month format: "Sep 2023", days "24 Sep 2023" (UTC day of an instant)', () => {
+    expect(formatMonth('2023-09')).toBe('Sep 2023');
+    expect(formatDay('2023-09-24')).toBe('24 Sep 2023');
+    expect(formatDay('2023-09-24T23:30:00.000Z')).toBe('24 Sep 2023');
+    expect(formatDay('2023-09-24T23:30:00-02:00')).toBe('25 Sep 2023');
+    expect(formatDay(null)).toBe('–');
+    expect(formatDay('soon')).toBe('soon');
   });
 });

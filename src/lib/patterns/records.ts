@@ -150,6 +150,22 @@ export interface PatternChanges {
   summary: string[];
 }
 
+/** A build month `YYYY-MM` in words, "Feb 2023" (the one month format of the Patterns pages and pack). */
+export function formatMonth(m: string): string {
+  return monthWords(m);
+}
+
+/**
+ * A calendar day `YYYY-MM-DD`, or the UTC day of an ISO instant, in words: "24 Sep 2023" (the same month names as
+ * formatMonth, whatever the browser's locale data calls September). Anything else is returned as it is.
+ */
+export function formatDay(s: string | null | undefined): string {
+  if (!s) return '–';
+  const day = /^\d{4}-\d{2}-\d{2}$/.test(s) ? s : /^\d{4}-\d{2}-\d{2}T/.test(s) && !Number.isNaN(Date.parse(s)) ? new Date(s).toISOString().slice(0, 10) : null;
+  if (!day) return s;
+  return `${day.slice(8, 10)} ${monthWords(day.slice(0, 7))}`;
+}
+
 function monthWords(m: string): string {
   const names = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
   const [y, mo] = m.split('-');
@@ -161,14 +177,17 @@ export function formatBuildRange(r: BuildRange): string {
   return r.buildFrom === r.buildTo ? monthWords(r.buildFrom) : `${monthWords(r.buildFrom)} – ${monthWords(r.buildTo)}`;
 }
 
-/** Changes of a record since a person last acted on it. */
-export function computePatternChanges(x: ChangeInputs): PatternChanges {
+/**
+ * Changes of a record since a person last acted on it. `failuresWhere` qualifies the new failures in words when
+ * they are counted over part of the fleet (e.g. "in your depots").
+ */
+export function computePatternChanges(x: ChangeInputs, failuresWhere?: string): PatternChanges {
   const before = { buildFrom: x.actedBuildFrom, buildTo: x.actedBuildTo };
   const range = describeRangeChange(before, x);
   const newFailures = Math.max(0, x.failures - x.actedFailures);
   const summary: string[] = [];
   if (range !== 'same') summary.push(`Build range ${range} from ${formatBuildRange(before)} to ${formatBuildRange(x)}`);
-  if (newFailures > 0) summary.push(`${newFailures} new ${newFailures === 1 ? 'failure' : 'failures'}`);
+  if (newFailures > 0) summary.push(`${newFailures} new ${newFailures === 1 ? 'failure' : 'failures'}${failuresWhere ? ` ${failuresWhere}` : ''}`);
   if (!x.significant) summary.push('No longer significant');
   if (!x.inLatestReport) summary.push('Not found in the latest report');
   return {
@@ -179,4 +198,77 @@ export function computePatternChanges(x: ChangeInputs): PatternChanges {
     notInLatestReport: !x.inLatestReport,
     summary,
   };
+}
+
+/**
+ * A campaign is overdue when it is in force (status campaign planned) and its target date is before today (both
+ * `YYYY-MM-DD`, compared as calendar days). A resolved campaign is never overdue.
+ */
+export function isCampaignOverdue(status: PatternStatus, targetDate: string | null, today: string): boolean {
+  return status === 'campaign_planned' && targetDate !== null && targetDate !== '' && targetDate < today;
+}
+
+/** The campaign fields a person sets. */
+export interface CampaignFields {
+  kind: string;
+  note: string;
+  targetDate: string;
+}
+
+/** The fields of a campaign that a revision changes, in form order (empty when nothing changed). */
+export function diffCampaign(before: Partial<CampaignFields> | null, after: CampaignFields): { field: 'campaignKind' | 'campaignNote' | 'campaignTargetDate'; oldValue: string | null; newValue: string }[] {
+  const out: { field: 'campaignKind' | 'campaignNote' | 'campaignTargetDate'; oldValue: string | null; newValue: string }[] = [];
+  const old = (v: string | undefined | null) => (v === undefined || v === null ? null : v);
+  if (old(before?.kind) !== after.kind) out.push({ field: 'campaignKind', oldValue: old(before?.kind), newValue: after.kind });
+  if (old(before?.note) !== after.note) out.push({ field: 'campaignNote', oldValue: old(before?.note), newValue: after.note });
+  if (old(before?.targetDate) !== after.targetDate) out.push({ field: 'campaignTargetDate', oldValue: old(before?.targetDate), newValue: after.targetDate });
+  return out;
+}
+
+/** One audit row as the history groups it. */
+export interface HistoryAuditRow {
+  id: number;
+  at: string;
+  who: string;
+  action: string;
+  field: string | null;
+  oldValue: string | null;
+  newValue: string | null;
+}
+
+/** One history entry: one action by one person at one moment, with the fields it changed. */
+export interface HistoryEntry {
+  id: number;
+  at: string;
+  who: string;
+  action: string;
+  text: string | null;
+  changes: { field: string; oldValue: string | null; newValue: string | null }[];
+}
+
+/**
+ * Group audit rows (newest first) into history entries: consecutive rows of the same action, person and moment are
+ * one entry — a status move with its note, or a campaign revision with every field it changed. Rows without a field
+ * (a pattern found) are entries of their own with their text.
+ */
+export function groupPatternHistory(rows: readonly HistoryAuditRow[]): HistoryEntry[] {
+  const out: HistoryEntry[] = [];
+  for (const r of rows) {
+    const last = out[out.length - 1];
+    if (r.field !== null && last && last.changes.length > 0 && last.at === r.at && last.who === r.who && last.action === r.action) {
+      // Rows come newest first; within one action they were written in form order, so put each in front.
+      last.changes.unshift({ field: r.field, oldValue: r.oldValue, newValue: r.newValue });
+      last.id = Math.min(last.id, r.id);
+      continue;
+    }
+    out.push({
+      id: r.id,
+      at: r.at,
+      who: r.who,
+      action: r.action,
+      text: r.field === null ? r.newValue : null,
+      changes: r.field === null ? [] : [{ field: r.field, oldValue: r.oldValue, newValue: r.newValue }],
+    });
+  }
+  return out;
 }

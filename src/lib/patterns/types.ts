@@ -99,8 +99,12 @@ export interface CohortMonth {
 /** Verdict of a cohort: not significant, significant with water evidence, or significant but dry. */
 export type CohortVerdict = 'not_significant' | 'water_ingress' | 'significant_dry';
 
-/** One tested cohort (module type × exposure band × discovered build range). */
-export interface PatternCohort {
+/**
+ * The figures of a fixed build range of one module type × exposure band over the fleet given: what the cohort of a
+ * report carries apart from the scan that found the range. A report's cohort adds the scan (PatternCohort); a
+ * pattern record read over one person's depots carries these figures only (src/lib/patterns/cohort-figures.ts).
+ */
+export interface CohortFigures {
   /** Stable identity of this finding: `${moduleCode}:${band}:${buildFrom}:${buildTo}`. */
   id: string;
   /** Stable identity of the place searched: `${moduleCode}:${band}` (one cohort per key and report). */
@@ -122,17 +126,10 @@ export interface PatternCohort {
   /** Exact conditional 95% limits of rateRatio (Clopper–Pearson mapped); ciHigh null = unbounded. */
   ciLow: number;
   ciHigh: number | null;
-  /** Scan p-value that pays for the window search (Monte Carlo; Gumbel tail when no replicate reached it). */
-  pValue: number;
-  /** Benjamini–Hochberg adjusted pValue across every cohort of the report. */
-  qValue: number;
   /** Share of the cohort's diagnosed failures with moisture found or root cause water ingress (0 when none diagnosed). */
   moistureShare: number;
   /** Cohort vehicles with two or more failures of this module type. */
   repeatVehicles: number;
-  significant: boolean;
-  waterIngress: boolean;
-  verdict: CohortVerdict;
   /** failures / vehicleYears. */
   ratePerVehicleYear: number;
   /** The module's failures per vehicle-year over the whole visible fleet. */
@@ -143,17 +140,6 @@ export interface PatternCohort {
   restVehicleYears: number;
   /** Exact conditional two-sided p of rateRatio = 1 (R binom.test rule), not adjusted for the window search. */
   rateRatioPValue: number;
-  /** Kulldorff log-likelihood ratio of the window. */
-  scanLlr: number;
-  /** Failures the window would have at its band's own rate (the scan's expectation). */
-  scanExpected: number;
-  /** Monte Carlo p = (1 + #replicates ≥ observed) / (R + 1). */
-  mcP: number;
-  /** Gumbel-tail p from the replicate maxima (method of moments); null when the maxima have no spread. */
-  gumbelP: number | null;
-  pValueMethod: 'monte_carlo' | 'gumbel';
-  replicates: number;
-  windowsTested: number;
   bandVehicles: number;
   bandVehicleYears: number;
   bandFailures: number;
@@ -172,6 +158,28 @@ export interface PatternCohort {
   byMonth: CohortMonth[];
   /** Trend tests over the cohort's own vehicles and failures (same method as the module's trend). */
   trend: ModuleTrend;
+}
+
+/** One tested cohort (module type × exposure band × discovered build range): its figures and the scan's. */
+export interface PatternCohort extends CohortFigures {
+  /** Scan p-value that pays for the window search (Monte Carlo; Gumbel tail when no replicate reached it). */
+  pValue: number;
+  /** Benjamini–Hochberg adjusted pValue across every cohort of the report. */
+  qValue: number;
+  significant: boolean;
+  waterIngress: boolean;
+  verdict: CohortVerdict;
+  /** Kulldorff log-likelihood ratio of the window. */
+  scanLlr: number;
+  /** Failures the window would have at its band's own rate (the scan's expectation). */
+  scanExpected: number;
+  /** Monte Carlo p = (1 + #replicates ≥ observed) / (R + 1). */
+  mcP: number;
+  /** Gumbel-tail p from the replicate maxima (method of moments); null when the maxima have no spread. */
+  gumbelP: number | null;
+  pValueMethod: 'monte_carlo' | 'gumbel';
+  replicates: number;
+  windowsTested: number;
 }
 
 /** Trend tests of one module type's failures over each vehicle's days in service. */
