@@ -222,10 +222,11 @@ export async function columnTexts(table: Locator, header: RegExp, opts: { firstL
     (el, { source, flags, firstLink }) => {
       const re = new RegExp(source, flags);
       const t = el as HTMLTableElement;
-      const heads = [...t.querySelectorAll('thead th')].map((th) => (th.textContent ?? '').replace(/[↕▲▼]/g, '').trim());
+      // Only this table's own header and rows (:scope), never those of a table nested in one of its cells.
+      const heads = [...t.querySelectorAll(':scope > thead > tr > th')].map((th) => (th.textContent ?? '').replace(/[↕▲▼]/g, '').trim());
       const idx = heads.findIndex((h) => re.test(h));
       if (idx < 0) throw new Error(`no column ${re} among ${heads.join(' | ')}`);
-      return [...t.querySelectorAll('tbody tr')]
+      return [...t.querySelectorAll(':scope > tbody > tr')]
         .filter((tr) => tr.children.length > idx && (tr.children[0] as HTMLTableCellElement).colSpan === 1)
         .map((tr) => {
           const cell = tr.children[idx] as HTMLElement;
