@@ -8,6 +8,7 @@ import { defects, depots, modules, userDepots, vehicles } from '@/db/schema';
 import type { ListResponse, VehicleListQuery } from '@/lib/contracts/lists';
 import { cellsFromObject, validateRecord, type ImportKind, type RowIssue } from '@/lib/imports/rows';
 import { parseVin } from '@/lib/vin/vin';
+import { can } from '@/lib/auth/permissions';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
 import { conflict, HttpError, notFound } from './http';
 import { depotScope, iso, likePattern, orderBy, paging } from './list-helpers';
@@ -37,8 +38,11 @@ function validated<K extends ImportKind>(kind: K, body: Record<string, unknown>)
 
 type DepotDb = typeof depots.$inferSelect;
 
-/** JSON of a depot. */
-export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: number }) {
+/** What keeps a depot from being deleted: every vehicle (retired ones too), defect and person attached to it. */
+export type DepotUsage = { vehicles: number; defects: number; people: number };
+
+/** JSON of a depot; `usage` only for people who may delete depots (the Depots page disables Delete with the reason). */
+export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: number }, usage?: DepotUsage) {
   return {
     id: d.id,
     code: d.code,
@@ -51,6 +55,7 @@ export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: 
     inspectionSlotsPerDay: d.inspectionSlotsPerDay,
     timezone: d.timezone,
     ...(counts ?? {}),
+    ...(usage ? { usage } : {}),
     createdAt: iso(d.createdAt),
     updatedAt: iso(d.updatedAt),
   };
@@ -84,6 +89,9 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
       d: depots,
       vehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = "depots"."id" and v.retired_date is null)`,
       openDefects: sql<number>`(select count(*) from defects x where x.depot_id = "depots"."id" and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      allVehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = "depots"."id")`,
+      allDefects: sql<number>`(select count(*) from defects x where x.depot_id = "depots"."id")`,
+      people: sql<number>`(select count(*) from user_depots u where u.depot_id = "depots"."id")`,
     })
     .from(depots)
     .where(where)
@@ -91,7 +99,15 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
     .limit(pageSize)
     .offset(offset)
     .all();
-  return { items: rows.map((r) => depotJson(r.d, { vehicles: r.vehicles, openDefects: r.openDefects })), total, page, pageSize };
+  const withUsage = can(user.role, 'depot:write');
+  return {
+    items: rows.map((r) =>
+      depotJson(r.d, { vehicles: r.vehicles, openDefects: r.openDefects }, withUsage ? { vehicles: r.allVehicles, defects: r.allDefects, people: r.people } : undefined),
+    ),
+    total,
+    page,
+    pageSize,
+  };
 }
 
 /** One depot by code, inside the caller's scope (else 404). */
@@ -139,8 +155,8 @@ export function deleteDepot(user: SessionUser, code: string, actor: Actor): void
 
 type ModuleDb = typeof modules.$inferSelect;
 
-/** JSON of a module type. */
-export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects: number }) {
+/** JSON of a module type; `usage` (defects in every depot, which keep it from being deleted) only for people who may delete it. */
+export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects: number }, usage?: { defects: number }) {
   return {
     id: m.id,
     code: m.code,
@@ -149,6 +165,7 @@ export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects:
     partNumber: m.partNumber,
     supplier: m.supplier,
     ...(counts ?? {}),
+    ...(usage ? { usage } : {}),
     createdAt: iso(m.createdAt),
     updatedAt: iso(m.updatedAt),
   };
@@ -184,6 +201,7 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
       m: modules,
       defects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter})`,
       openDefects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      allDefects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id")`,
     })
     .from(modules)
     .where(where)
@@ -191,7 +209,13 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
     .limit(pageSize)
     .offset(offset)
     .all();
-  return { items: rows.map((r) => moduleJson(r.m, { defects: r.defects, openDefects: r.openDefects })), total, page, pageSize };
+  const withUsage = can(user.role, 'module:write');
+  return {
+    items: rows.map((r) => moduleJson(r.m, { defects: r.defects, openDefects: r.openDefects }, withUsage ? { defects: r.allDefects } : undefined)),
+    total,
+    page,
+    pageSize,
+  };
 }
 
 /** One module type by code. */
