@@ -134,7 +134,7 @@ export function depotColumns(a: Actions, compact = false): ColumnDef<Depot>[] {
           header: 'Bay · zone',
           cell: ({ row }) => (
             <div className="leading-tight whitespace-nowrap">
-              <div title={SLOTS_TITLE}>{row.original.inspectionSlotsPerDay === null ? dash : `${row.original.inspectionSlotsPerDay} slots/day`}</div>
+              <div title={SLOTS_TITLE}>{row.original.inspectionSlotsPerDay === null ? dash : `${row.original.inspectionSlotsPerDay} ${row.original.inspectionSlotsPerDay === 1 ? 'slot' : 'slots'}/day`}</div>
               <div className="text-xs text-ink-500">{row.original.timezone ?? 'No time zone'}</div>
             </div>
           ),

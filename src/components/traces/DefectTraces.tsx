@@ -7,7 +7,7 @@ import { useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { Activity, Plus } from 'lucide-react';
 import { useIslandQueryClient } from '@/lib/client/query-client';
-import { formatInstant } from '@/components/defects/format';
+import { storedAt } from './columns';
 import { DIRECTION_LABELS, verdictBadge, verdictLabel } from './labels';
 import { formatDeg, formatHz } from './format';
 import { useTraces } from './queries';
@@ -61,7 +61,7 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
                 {formatHz(Math.max(t.channels.a.freqHz, t.channels.b.freqHz))}
               </span>
               <span className="w-full text-xs text-ink-500 sm:w-auto">
-                {formatInstant(t.createdAt)}
+                {storedAt(t)}
                 {t.createdBy ? ` · ${t.createdBy}` : ''}
               </span>
             </li>
