@@ -669,7 +669,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
       const since = status === 'reported' ? ev.atMs : Math.min(nowMs, diagStartAt);
       if (since < (offRoad.get(v.id) ?? Infinity)) {
         // The earliest open defect that keeps it off road is the reason a supervisor wrote down (no random draws here).
-        offRoadWhy.set(v.id, { reason: `${ref}, ${ev.position} door: ${symptom}`, by: team.supervisors[0] ?? technician });
+        offRoadWhy.set(v.id, { reason: `${ev.position} door: ${symptom}`, by: team.supervisors[0] ?? technician });
       }
       offRoad.set(v.id, Math.min(offRoad.get(v.id) ?? since, since));
     }

@@ -29,14 +29,14 @@ function StatusCell({ v }: { v: VehicleRow }) {
   if (v.status !== 'off_road' || !v.offRoadSince) return badge;
   const days = daysSince(v.offRoadSince, Date.now());
   return (
-    <div className="min-w-[9rem] space-y-1 leading-tight">
+    <div className="w-[10.5rem] space-y-1 leading-tight">
       {badge}
       <div className="text-xs text-ink-600" title={`Off road since ${formatDepotInstant(v.offRoadSince, v.depotTimeZone)}`}>
         since {formatDepotDate(v.offRoadSince, v.depotTimeZone)}
         {days !== null && <span className="font-semibold text-ink-800"> · {days} d</span>}
       </div>
       {v.offRoadReason && (
-        <div className="max-w-[14rem] truncate text-xs text-ink-600" title={v.offRoadReason}>
+        <div className="line-clamp-2 text-xs text-ink-600" title={v.offRoadReason}>
           {v.offRoadReason}
         </div>
       )}
