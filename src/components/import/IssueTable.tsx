@@ -39,7 +39,7 @@ const columns: ColumnDef<Located>[] = [
     cell: ({ row }) => {
       const i = row.original;
       return (
-        <div className="leading-tight" aria-label={rowWords(i)}>
+        <div className="leading-tight" title={rowWords(i)}>
           <div className="font-semibold text-ink-900">{i.row === 0 ? 'Header' : `Row ${i.row.toLocaleString('en-GB')}`}</div>
           {i.line !== null && <div className="text-xs text-ink-500">line {i.line.toLocaleString('en-GB')} in the sheet</div>}
         </div>
