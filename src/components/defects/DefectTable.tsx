@@ -106,9 +106,13 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
           <PageSizeSelect value={pageSize} onChange={(n) => update({ pageSize: String(n) })} />
           <a
             className={`btn-secondary${canDownload ? '' : ' pointer-events-none opacity-50'}`}
-            href={canDownload ? defectExportHref(params) : undefined}
+            href={defectExportHref(params)}
             download
             aria-disabled={!canDownload}
+            tabIndex={canDownload ? undefined : -1}
+            onClick={(e) => {
+              if (!canDownload) e.preventDefault();
+            }}
             title={
               canDownload
                 ? 'Every defect of this view (all pages): the defects import columns, then status, depot, findings, parts, labour and cost'

@@ -105,9 +105,13 @@ export function buildPlotWindow(
   const da = decimateMinMax(capture.time, capture.a, fromS, toS, opts.columns);
   const db = decimateMinMax(capture.time, capture.b, fromS, toS, opts.columns);
   const raw = da.mode === 'raw';
-  // Raw: add the sample before and after the window when the window's edge falls between samples.
-  const before = raw && da.fromIndex > 0 && (da.toIndex === da.fromIndex || capture.time[da.fromIndex]! > fromS) ? da.fromIndex - 1 : null;
-  const after = raw && da.toIndex < n && (da.toIndex === da.fromIndex || capture.time[da.toIndex - 1]! < toS) ? da.toIndex : null;
+  // Raw: add the sample before and after the window when the window's edge falls between samples (by more than a
+  // hundredth of a sample interval, so that an edge on a sample, give or take rounding, adds nothing).
+  const t = capture.time;
+  const gapBefore = (i: number) => i >= n || t[i]! - fromS > 0.01 * (t[i]! - t[i - 1]!);
+  const gapAfter = (i: number) => i < 0 || toS - t[i]! > 0.01 * (t[i + 1]! - t[i]!);
+  const before = raw && da.fromIndex > 0 && (da.toIndex === da.fromIndex || gapBefore(da.fromIndex)) ? da.fromIndex - 1 : null;
+  const after = raw && da.toIndex < n && (da.toIndex === da.fromIndex || gapAfter(da.toIndex - 1)) ? da.toIndex : null;
   const pad = (inside: ArrayLike<number>, all: Float64Array): number[] => [
     ...(before === null ? [] : [all[before]!]),
     ...Array.from(inside),
