@@ -6,6 +6,7 @@
  */
 import type * as schema from '../src/db/schema';
 import { computeRepeats } from '../src/lib/defects/repeat';
+import { vehicleSearchKey } from '../src/lib/vehicles/search-key';
 import {
   ACTIONS,
   CAUSE_MIX,
@@ -711,6 +712,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
       washesPerMonth: v.washesPerMonth,
       modelYear: new Date(v.buildMs).getUTCFullYear(),
       offRoadSinceAt: offRoad.get(v.id) ?? null,
+      searchKey: vehicleSearchKey(v.registration, v.fleetNumber),
       createdAt: v.inServiceMs,
       updatedAt: v.retiredMs ?? v.inServiceMs,
     };

@@ -148,6 +148,8 @@ export const vehicles = sqliteTable(
     modelYear: integer('model_year'),
     /** Set while the vehicle is off road for a defect or inspection. */
     offRoadSinceAt: integer('off_road_since_at'),
+    /** Registration and fleet number without separators (src/lib/vehicles/search-key.ts), written with every vehicle write. */
+    searchKey: text('search_key'),
     version: integer('version').notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),

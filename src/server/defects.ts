@@ -10,7 +10,7 @@ import type { DefectListQuery, ListResponse } from '@/lib/contracts/lists';
 import { parseInstant } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { invalid } from './http';
-import { depotScope, likePattern, listParam, orderBy, paging, separatorFreeLike, separatorFreePattern } from './list-helpers';
+import { depotScope, likePattern, listParam, orderBy, paging, separatorFreePattern } from './list-helpers';
 
 const OPEN = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'];
 import { defectJson, defectSelect, earlier, type DefectJson, type DefectSel } from './defect-json';
@@ -93,8 +93,7 @@ function defectListWhere(user: SessionUser, q: DefectListQuery, now: number): SQ
         sql`${vehicles.fleetNumber} like ${p} escape '\\'`,
         sql`${vehicles.registration} like ${p} escape '\\'`,
         // A plate or fleet number typed without (or with other) dashes and spaces: "GHQ4941J" for "GHQ-4941-J".
-        bare ? separatorFreeLike(vehicles.registration, bare) : undefined,
-        bare ? separatorFreeLike(vehicles.fleetNumber, bare) : undefined,
+        bare ? sql`${vehicles.searchKey} like ${bare} escape '\\'` : undefined,
         sql`${defects.symptom} like ${p} escape '\\'`,
         sql`${defects.dtcs} like ${p} escape '\\'`,
       ),

@@ -14,7 +14,7 @@ import { parseVin } from '@/lib/vin/vin';
 import { can } from '@/lib/auth/permissions';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
 import { conflict, HttpError, invalid, notFound } from './http';
-import { depotScope, iso, likePattern, orderBy, paging, separatorFreeLike, separatorFreePattern } from './list-helpers';
+import { depotScope, iso, likePattern, orderBy, paging, separatorFreePattern } from './list-helpers';
 import { applyDepotRow, applyModuleRow, applyVehicleRow } from './imports';
 import { writeAudit, type Actor } from './audit';
 
@@ -366,8 +366,7 @@ export function listVehicles(user: SessionUser, q: VehicleListQuery): ListRespon
         sql`${vehicles.fleetNumber} like ${p} escape '\\'`,
         sql`${vehicles.registration} like ${p} escape '\\'`,
         // Plates and fleet numbers as people type them: "GHQ4941J" or "ghq 4941" finds "GHQ-4941-J".
-        bare ? separatorFreeLike(vehicles.registration, bare) : undefined,
-        bare ? separatorFreeLike(vehicles.fleetNumber, bare) : undefined,
+        bare ? sql`${vehicles.searchKey} like ${bare} escape '\\'` : undefined,
         sql`${vehicles.make} like ${p} escape '\\'`,
         sql`${vehicles.model} like ${p} escape '\\'`,
       ),

@@ -20,6 +20,7 @@ import {
   type VehicleRow,
 } from '@/lib/imports/rows';
 import { parseInstant } from '@/lib/dates/dates';
+import { vehicleSearchKey } from '@/lib/vehicles/search-key';
 import type { Actor } from './audit';
 import { refreshRepeats } from './repeats';
 
@@ -127,7 +128,8 @@ function upsertByKey<V extends Record<string, unknown>>(
     const set: Record<string, unknown> = { ...r.values, updatedAt: Date.now() };
     if (bumpVersion) set.version = Number(prev.version ?? 1) + 1;
     tx.update(table).set(set).where(eq((table as typeof vehicles).id, prev.id)).run();
-    audit.updated(entity, entity === 'vehicle' ? r.key : String(prev.id), prev, r.values, fields);
+    // The search key follows the registration and fleet number; it is not a change of its own in the audit trail.
+    audit.updated(entity, entity === 'vehicle' ? r.key : String(prev.id), prev, r.values, fields.filter((f) => f !== 'searchKey'));
     out[i] = { outcome: 'updated', id: prev.id };
   });
   for (const part of chunked(inserts, 200)) {
@@ -164,7 +166,7 @@ export function applyVehicleRows(tx: Tx, rows: Array<{ row: VehicleRow; depotId:
     'vehicle',
     rows.map(({ row, depotId }) => {
       const { depotCode: _code, ...rest } = row;
-      return { key: row.vin, values: { ...rest, depotId } };
+      return { key: row.vin, values: { ...rest, depotId, searchKey: vehicleSearchKey(row.registration, row.fleetNumber) } };
     }),
     audit,
     true,

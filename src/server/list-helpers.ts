@@ -1,6 +1,7 @@
 /** Small helpers shared by the list services: paging, sorting and depot scope conditions. */
 import { asc, desc, inArray, sql, type SQL, type Column } from 'drizzle-orm';
 import { DEFAULT_PAGE_SIZE, parseSort, SortFieldError } from '@/lib/contracts/lists';
+import { stripSeparators } from '@/lib/vehicles/search-key';
 import type { SessionUser } from './auth';
 import { invalid } from './http';
 
@@ -35,30 +36,15 @@ export function likePattern(q: string): string {
   return `%${q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
 }
 
-/** Characters people put between the parts of a registration or fleet number ("GHQ-4941-J", "LV 1016", "AB.12"). */
-const SEPARATORS = ['-', ' ', '.', '/', '_'];
-
 /**
- * The LIKE pattern of search text with its separators removed (`"ghq 4941"` → `%GHQ4941%`), for matching
- * registrations and fleet numbers however the dashes and spaces were typed; null when fewer than two characters
- * are left.
+ * The LIKE pattern of search text without separators (`"ghq 4941"` → `%GHQ4941%`), for `vehicles.search_key` (the
+ * registration and fleet number stored without separators, src/lib/vehicles/search-key.ts); null when fewer than two
+ * characters are left.
  */
 export function separatorFreePattern(q: string): string | null {
-  const bare = q.trim().toUpperCase().replace(/[-\s./_]+/g, '');
+  const bare = stripSeparators(q.trim());
   if (bare.length < 2) return null;
   return likePattern(bare);
-}
-
-/**
- * `column`, stripped of separators, LIKE `pattern` (from separatorFreePattern). The search is a contains-match,
- * so it scans the rows the other conditions leave either way; the depot and sort indexes still apply
- * (docs/benchmarks.md, bench:fleet).
- */
-export function separatorFreeLike(column: Column, pattern: string): SQL {
-  // LIKE ignores ASCII case, so no upper() is needed on the column.
-  let expr: SQL = sql`${column}`;
-  for (const c of SEPARATORS) expr = sql`replace(${expr}, ${c}, '')`;
-  return sql`${expr} like ${pattern} escape '\\'`;
 }
 
 /** Comma-separated filter values (`status=reported,diagnosing`). */

@@ -124,6 +124,12 @@ describe('tablet portrait', () => {
         const b = (await button.boundingBox())!;
         expect(b.x + b.width, `${del} is on screen`).toBeLessThanOrEqual(768);
         expect(b.height).toBeGreaterThanOrEqual(40);
+        // GHQ and WLR-2 hold vehicles and defects: the dialog says so and does not offer a delete that would be refused.
+        await button.click();
+        const dialog = page.getByRole('dialog');
+        await dialog.getByText(/cannot be deleted: /).waitFor();
+        expect(await dialog.getByRole('button', { name: /^Delete / }).isDisabled()).toBe(true);
+        await dialog.getByRole('button', { name: 'Close', exact: true }).first().click();
       }
     } finally {
       await loginAs(h.context, 'technician');

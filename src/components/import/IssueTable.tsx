@@ -150,7 +150,7 @@ export function IssueTable({ issues: raw, rows = NO_ROWS, tone, caption, fileNam
                       <th
                         key={h.id}
                         scope="col"
-                        className={h.id === 'row' ? 'w-32' : h.id === 'column' ? 'w-44' : h.id === 'record' ? 'w-48' : ''}
+                        className={h.id === 'row' ? 'w-28' : h.id === 'column' ? 'w-36' : h.id === 'record' ? 'w-40' : ''}
                         aria-sort={dir ? (dir === 'desc' ? 'descending' : 'ascending') : undefined}
                       >
                         {h.column.getCanSort() ? (

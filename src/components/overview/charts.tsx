@@ -133,8 +133,19 @@ export function RepeatTrendChart({ trend, average, span }: { trend: OverviewMont
               }}
             />
             {average !== null && <ReferenceLine y={Math.round(average * 1000) / 10} stroke={INK_400} strokeDasharray="4 4" label={{ value: 'whole window', position: 'right', fontSize: 12, fill: '#667080' }} />}
-            <Line type="linear" dataKey="solidPct" stroke={BRICK_600} strokeWidth={2} connectNulls isAnimationActive={false} dot={point} activeDot={false} />
-            <Line type="linear" dataKey="tailPct" stroke={BRICK_600} strokeWidth={2} strokeDasharray="5 4" connectNulls isAnimationActive={false} dot={false} activeDot={false} legendType="none" />
+            <Line type="linear" dataKey="solidPct" stroke={BRICK_600} strokeWidth={2} connectNulls isAnimationActive={false} dot={(p) => (data[p.index]?.partial ? <g key={p.index} /> : point(p))} activeDot={false} />
+            <Line
+              type="linear"
+              dataKey="tailPct"
+              stroke={BRICK_600}
+              strokeWidth={2}
+              strokeDasharray="5 4"
+              connectNulls
+              isAnimationActive={false}
+              dot={(p) => (data[p.index]?.partial ? point(p) : <g key={p.index} />)}
+              activeDot={false}
+              legendType="none"
+            />
           </LineChart>
         )}
       </ChartBox>
@@ -143,7 +154,9 @@ export function RepeatTrendChart({ trend, average, span }: { trend: OverviewMont
           <svg width="22" height="8" className="mr-1 inline-block align-middle" aria-hidden="true">
             <line x1="1" y1="4" x2="21" y2="4" stroke={BRICK_600} strokeWidth="2" strokeDasharray="5 4" />
           </svg>
-          {formatMonth(partial.month)} is still running: its point counts {plural(partial.reported, 'defect')} reported so far, not a whole month.
+          {partial.reported === 0
+            ? `${formatMonth(partial.month)} is still running, with no defect reported yet, so it has no point.`
+            : `${formatMonth(partial.month)} is still running: its point counts ${plural(partial.reported, 'defect')} reported so far, not a whole month.`}
         </p>
       )}
     </div>

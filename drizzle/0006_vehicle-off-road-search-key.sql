@@ -16,4 +16,5 @@ CREATE TABLE `vehicle_off_road` (
 	FOREIGN KEY (`ended_by_id`) REFERENCES `users`(`id`) ON UPDATE no action ON DELETE set null
 );
 --> statement-breakpoint
-CREATE INDEX `vehicle_off_road_vehicle_idx` ON `vehicle_off_road` (`vehicle_id`,`from_at`);
+CREATE INDEX `vehicle_off_road_vehicle_idx` ON `vehicle_off_road` (`vehicle_id`,`from_at`);--> statement-breakpoint
+ALTER TABLE `vehicles` ADD `search_key` text;
