@@ -14,6 +14,8 @@ import * as depotsRoute from '../../src/pages/api/depots/index';
 import * as modulesRoute from '../../src/pages/api/modules/index';
 import * as defectsRoute from '../../src/pages/api/defects/index';
 import { listOffRoadHistory } from '../../src/server/fleet';
+import { vehicleSearchKey } from '../../src/lib/vehicles/search-key';
+import fs from 'node:fs';
 
 let sup: string, supSth: string, viewer: string, manager: string, supId: number;
 let vin: string, vinClean: string, vinPlate: string;
@@ -172,6 +174,21 @@ describe('search by registration or fleet number however it is typed', () => {
     addDefects([{ ref: 'DF-T-010', vin: vinPlate, reportedAt: Date.now() - DAY_MS, position: 'FL', module: 'LCK-1' }]);
     const r = await body(await call(defectsRoute, 'GET', '/api/defects?q=GHQ4941J', { token: sup }));
     expect(r.items.map((d: { ref: string }) => d.ref)).toEqual(['DF-T-010']);
+  });
+});
+
+describe('the stored search key', () => {
+  it('is what the fill migration writes for vehicles stored before it, the same as the app writes', async () => {
+    const { vehicles } = await import('../../src/db/schema');
+    const db = getDb();
+    const written = db.select({ key: vehicles.searchKey }).from(vehicles).where(eq(vehicles.vin, vinPlate)).get()!.key;
+    expect(written).toBe(vehicleSearchKey('GHQ-4941-J', 'LV 1016'));
+    // A vehicle as an older version stored it (no key), with every kind of separator, then the migration's SQL.
+    db.update(vehicles).set({ registration: 'ab-12 c.d/e_f', fleetNumber: 'lv 7', searchKey: null }).where(eq(vehicles.vin, vinClean)).run();
+    db.$client.exec(fs.readFileSync('drizzle/0007_vehicle-search-key-fill.sql', 'utf8'));
+    const filled = db.select({ key: vehicles.searchKey }).from(vehicles).where(eq(vehicles.vin, vinClean)).get()!.key;
+    expect(filled).toBe(vehicleSearchKey('ab-12 c.d/e_f', 'lv 7'));
+    expect(filled).toBe('AB12CDEF|LV7');
   });
 });
 
