@@ -98,7 +98,7 @@ describe('tablet portrait', () => {
     expect(Math.min(box.width, box.height)).toBeGreaterThanOrEqual(40);
   });
 
-  it('the admin sees every item at once, the active one included, and the Depots and Modules tables fit with their actions', async () => {
+  it('the admin sees every item at once, the active one included, and the Depots, Modules and People tables fit with their actions', async () => {
     const page = h.page;
     await loginAs(h.context, 'admin');
     try {
@@ -112,6 +112,7 @@ describe('tablet portrait', () => {
       for (const [path, caption, del] of [
         ['/depots', 'Depots', 'Delete depot GHQ'],
         ['/modules', 'Module catalogue', 'Delete module type WLR-2'],
+        ['/people', 'People', 'Reset password of Marta Sealby'],
       ] as const) {
         await open(page, path);
         const table = page.getByRole('table', { name: caption, exact: true });
@@ -124,6 +125,7 @@ describe('tablet portrait', () => {
         const b = (await button.boundingBox())!;
         expect(b.x + b.width, `${del} is on screen`).toBeLessThanOrEqual(768);
         expect(b.height).toBeGreaterThanOrEqual(40);
+        if (path === '/people') continue;
         // GHQ and WLR-2 hold vehicles and defects: the dialog says so and does not offer a delete that would be refused.
         await button.click();
         const dialog = page.getByRole('dialog');

@@ -31,7 +31,7 @@ export const DEPOT_WIDE_MIN_PX = 940;
 
 function CodeCell({ d, canWrite, onEdit }: { d: Depot; canWrite: boolean; onEdit: (d: Depot) => void }) {
   return canWrite ? (
-    <button type="button" className="link mono -my-1 min-h-10 text-left" onClick={() => onEdit(d)} title={`Edit depot ${d.code}`}>
+    <button type="button" className="link mono -my-2 min-h-10 text-left" onClick={() => onEdit(d)} title={`Edit depot ${d.code}`}>
       {d.code}
     </button>
   ) : (

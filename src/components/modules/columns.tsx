@@ -13,7 +13,7 @@ const dash = <span className="text-ink-400">—</span>;
 
 function CodeCell({ m, canWrite, onEdit }: { m: ModuleType; canWrite: boolean; onEdit: (m: ModuleType) => void }) {
   return canWrite ? (
-    <button type="button" className="link mono -my-1 min-h-10 text-left" onClick={() => onEdit(m)} title={`Edit module type ${m.code}`}>
+    <button type="button" className="link mono -my-2 min-h-10 text-left" onClick={() => onEdit(m)} title={`Edit module type ${m.code}`}>
       {m.code}
     </button>
   ) : (

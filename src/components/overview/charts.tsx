@@ -76,6 +76,7 @@ export function StatusDepotChart({ depots }: { depots: OverviewDepot[] }) {
               dataKey={s}
               stackId="open"
               fill={STATUS_COLOURS[s]}
+              maxBarSize={44}
               isAnimationActive={false}
               shape={linkedBar(
                 (p) => defectsHref({ depot: (p.payload as StatusRow).code, status: s }),
