@@ -1,5 +1,5 @@
 // Signing in through the real form for every demo role, a wrong password, and signing out.
-import { describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it } from 'vitest';
 import { baseUrl, demoUser, loginAs, open, pathOf, signIn, useBrowser, type Role } from './fixtures';
 
 const h = useBrowser();
@@ -71,6 +71,11 @@ describe('sign-in form', () => {
 });
 
 describe('pages that are not there, or not for the role', () => {
+  // Leave the previous page first: an island of it still loading would be sent to /signin (401) when the cookies
+  // change under it, aborting the next navigation.
+  beforeEach(async () => {
+    await h.page.goto('about:blank');
+  });
   it('an unknown address answers 404 "Not Found" with Seepline\'s page in the signed-in shell and a way back', async () => {
     const page = h.page;
     await loginAs(h.context, 'technician');
