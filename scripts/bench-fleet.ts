@@ -34,7 +34,9 @@ for (let i = 0; i < N; i++) {
   const vin = body.slice(0, 8) + computeVinCheckDigit(body) + body.slice(9);
   const y = 2021 + (i % 4);
   const m = String(1 + (i % 12)).padStart(2, '0');
-  lines.push(`${vin},F${String(i).padStart(6, '0')},R${i},Make${i % 5},Model${i % 9},van,${y}-${m},${y}-${m}-20,${depotCodes[i % 8]},${parking[i % 3]},${i % 9}`);
+  // Registrations as plates are written, with dashes ("CCC-0999-D"), so that a search typed without them is measured.
+  const plate = `${depotCodes[i % 8]}-${String(i % 10_000).padStart(4, '0')}-${'ABCDEFGHJK'[Math.floor(i / 10_000) % 10]}`;
+  lines.push(`${vin},F${String(i).padStart(6, '0')},${plate},Make${i % 5},Model${i % 9},van,${y}-${m},${y}-${m}-20,${depotCodes[i % 8]},${parking[i % 3]},${i % 9}`);
 }
 const csv = lines.join('\n') + '\n';
 
@@ -59,6 +61,8 @@ const queries: Array<[string, () => unknown]> = [
   ['list page 1 (default sort)', () => listVehicles(user, {})],
   ['list sort -buildDate, page 1000', () => listVehicles(user, { sort: '-buildDate', page: 1000, pageSize: 50 })],
   ['list search q=F0999', () => listVehicles(user, { q: 'F0999' })],
+  ['list search q=DDD0999D (a plate typed without dashes)', () => listVehicles(user, { q: 'DDD0999D' })],
+  ['list search q=DDD0999D, one depot', () => listVehicles(scoped, { q: 'DDD0999D' })],
   ['list depot=CCC, parking=outdoor', () => listVehicles(user, { depot: 'CCC', parking: 'outdoor' })],
   ['list 2-depot scope, pageSize 200', () => listVehicles(scoped, { pageSize: 200 })],
   ['list sort by open defects', () => listVehicles(user, { sort: '-openDefects' })],

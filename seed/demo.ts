@@ -65,6 +65,7 @@ export async function seedDemo(db: Db, opts: { seed?: number; today?: string } =
       for (const c of chunks(data.defectTransitions)) tx.insert(schema.defectTransitions).values(c).run();
       if (data.settings.length) tx.insert(schema.settings).values(data.settings).onConflictDoNothing().run();
       for (const c of chunks(data.auditLog)) tx.insert(schema.auditLog).values(c).run();
+      for (const c of chunks(data.offRoadPeriods)) tx.insert(schema.vehicleOffRoad).values(c).run();
     },
     { behavior: 'immediate' },
   );

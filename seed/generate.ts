@@ -6,6 +6,7 @@
  */
 import type * as schema from '../src/db/schema';
 import { computeRepeats } from '../src/lib/defects/repeat';
+import { vehicleSearchKey } from '../src/lib/vehicles/search-key';
 import {
   ACTIONS,
   CAUSE_MIX,
@@ -215,6 +216,8 @@ export interface DemoDataset {
   auditLog: AuditRow[];
   /** Settings rows (the labour rate that the seeded costs use). */
   settings: Array<{ key: string; value: string }>;
+  /** The current off-road period of each vehicle that is off road: since when, why and who took it off. */
+  offRoadPeriods: Array<{ vehicleId: number; fromAt: number; reason: string; startedById: number }>;
   planted: PlantedSummary;
 }
 
@@ -479,6 +482,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
   const defectTransitions: TransitionRow[] = [];
   const refCounters = new Map<number, number>();
   const offRoad = new Map<number, number>();
+  const offRoadWhy = new Map<number, { reason: string; by: number }>();
 
   events.forEach((ev, i) => {
     const id = i + 1;
@@ -664,6 +668,10 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     const keepsOffRoad = fn === 'window_lifter' || fn === 'door_control' || fn === 'lock_actuator';
     if (open && keepsOffRoad && v.retiredMs === null && rng.chance(0.5)) {
       const since = status === 'reported' ? ev.atMs : Math.min(nowMs, diagStartAt);
+      if (since < (offRoad.get(v.id) ?? Infinity)) {
+        // The earliest open defect that keeps it off road is the reason a supervisor wrote down (no random draws here).
+        offRoadWhy.set(v.id, { reason: `${ev.position} door: ${symptom}`, by: team.supervisors[0] ?? technician });
+      }
       offRoad.set(v.id, Math.min(offRoad.get(v.id) ?? since, since));
     }
   });
@@ -704,6 +712,7 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
       washesPerMonth: v.washesPerMonth,
       modelYear: new Date(v.buildMs).getUTCFullYear(),
       offRoadSinceAt: offRoad.get(v.id) ?? null,
+      searchKey: vehicleSearchKey(v.registration, v.fleetNumber),
       createdAt: v.inServiceMs,
       updatedAt: v.retiredMs ?? v.inServiceMs,
     };
@@ -728,6 +737,12 @@ export function generateDemoData(opts: { seed?: number; today?: string } = {}): 
     defectTransitions,
     auditLog,
     settings: [{ key: 'labour_rate_minor_per_hour', value: String(LABOUR_RATE_MINOR_PER_HOUR) }],
+    offRoadPeriods: [...offRoad.entries()].map(([vehicleId, fromAt]) => ({
+      vehicleId,
+      fromAt,
+      reason: offRoadWhy.get(vehicleId)?.reason ?? 'Open door defect',
+      startedById: offRoadWhy.get(vehicleId)?.by ?? 1,
+    })),
     planted: {
       buildFrom: monthText(buildFromIndex),
       buildTo: monthText(buildToIndex),

@@ -148,6 +148,8 @@ export const vehicles = sqliteTable(
     modelYear: integer('model_year'),
     /** Set while the vehicle is off road for a defect or inspection. */
     offRoadSinceAt: integer('off_road_since_at'),
+    /** Registration and fleet number without separators (src/lib/vehicles/search-key.ts), written with every vehicle write. */
+    searchKey: text('search_key'),
     version: integer('version').notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -161,6 +163,37 @@ export const vehicles = sqliteTable(
     index('vehicles_in_service_idx').on(t.inServiceDate),
     index('vehicles_make_model_idx').on(t.make, t.model),
   ],
+);
+
+/**
+ * Each time a vehicle was off road: from when to when (open while it still is), who took it off and why, who put
+ * it back into service and why, and the open defects it went back with (those still needing the release
+ * verification listed apart). `vehicles.off_road_since_at` stays the current state; this is the history shown
+ * on the vehicle's page (docs/decisions/015-times-currency-off-road.md).
+ */
+export const vehicleOffRoad = sqliteTable(
+  'vehicle_off_road',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    vehicleId: integer('vehicle_id')
+      .notNull()
+      .references(() => vehicles.id, { onDelete: 'cascade' }),
+    fromAt: integer('from_at').notNull(),
+    /** Null while the vehicle is still off road. */
+    toAt: integer('to_at'),
+    reason: text('reason'),
+    startedById: integer('started_by_id').references(() => users.id, { onDelete: 'set null' }),
+    /** Who took it off road when there is no user (`seed`, `import`, `cli`), or null when not recorded. */
+    startedActor: text('started_actor'),
+    returnReason: text('return_reason'),
+    endedById: integer('ended_by_id').references(() => users.id, { onDelete: 'set null' }),
+    endedActor: text('ended_actor'),
+    /** Refs of the defects still open when it went back into service, space-separated. */
+    openDefectsAtReturn: text('open_defects_at_return'),
+    /** Refs of those that still needed the release verification (window re-initialised, auto-reverse checked). */
+    unverifiedAtReturn: text('unverified_at_return'),
+  },
+  (t) => [index('vehicle_off_road_vehicle_idx').on(t.vehicleId, t.fromAt)],
 );
 
 export const defects = sqliteTable(

@@ -4,15 +4,16 @@
  */
 import { and, eq, gte, inArray, lt, lte, or, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '@/db/client';
-import { defects, depots, modules, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
+import { defectParts, defects, depots, modules, vehicles, DEFECT_STATUSES, MOISTURE, POSITIONS } from '@/db/schema';
+import type { DefectCsvPart, DefectCsvSource } from '@/lib/exports/defects-csv';
 import type { DefectListQuery, ListResponse } from '@/lib/contracts/lists';
 import { parseInstant } from '@/lib/dates/dates';
 import type { SessionUser } from './auth';
 import { invalid } from './http';
-import { depotScope, likePattern, listParam, orderBy, paging } from './list-helpers';
+import { depotScope, likePattern, listParam, orderBy, paging, separatorFreePattern } from './list-helpers';
 
 const OPEN = ['reported', 'diagnosing', 'awaiting_parts', 'repaired', 'verified'];
-import { defectJson, defectSelect, earlier, type DefectJson } from './defect-json';
+import { defectJson, defectSelect, earlier, type DefectJson, type DefectSel } from './defect-json';
 
 export { defectJson, type DefectJson };
 
@@ -84,12 +85,15 @@ function defectListWhere(user: SessionUser, q: DefectListQuery, now: number): SQ
   if (to !== null) conds.push(lte(defects.reportedAt, to));
   if (q.q) {
     const p = likePattern(q.q.trim());
+    const bare = separatorFreePattern(q.q);
     conds.push(
       or(
         sql`${defects.ref} like ${p} escape '\\'`,
         sql`${vehicles.vin} like ${p} escape '\\'`,
         sql`${vehicles.fleetNumber} like ${p} escape '\\'`,
         sql`${vehicles.registration} like ${p} escape '\\'`,
+        // A plate or fleet number typed without (or with other) dashes and spaces: "GHQ4941J" for "GHQ-4941-J".
+        bare ? sql`${vehicles.searchKey} like ${bare} escape '\\'` : undefined,
         sql`${defects.symptom} like ${p} escape '\\'`,
         sql`${defects.dtcs} like ${p} escape '\\'`,
       ),
@@ -98,9 +102,20 @@ function defectListWhere(user: SessionUser, q: DefectListQuery, now: number): SQ
   return and(...conds);
 }
 
+/** The list's columns: those of every defect JSON, plus the depot's time zone (dates are shown in it). */
+const defectListColumns = { ...defectSelect, depotTimeZone: depots.timezone };
+type DefectListSel = DefectSel & { depotTimeZone: string | null };
+
+/** JSON of a defect in the list: the common JSON and the depot's time zone. */
+function defectListJson(r: DefectListSel) {
+  return { ...defectJson(r), depotTimeZone: r.depotTimeZone };
+}
+/** One defect of the list (GET /api/defects). */
+export type DefectListJson = ReturnType<typeof defectListJson>;
+
 function defectListSelect() {
   return getDb()
-    .select(defectSelect)
+    .select(defectListColumns)
     .from(defects)
     .innerJoin(vehicles, eq(vehicles.id, defects.vehicleId))
     .innerJoin(depots, eq(depots.id, defects.depotId))
@@ -122,13 +137,13 @@ function defectListCount(where: SQL | undefined): number {
 }
 
 /** Defects in the caller's depots, filtered, sorted and paged. */
-export function listDefects(user: SessionUser, q: DefectListQuery, now = Date.now()): ListResponse<DefectJson> {
+export function listDefects(user: SessionUser, q: DefectListQuery, now = Date.now()): ListResponse<DefectListJson> {
   const { page, pageSize, offset } = paging(q);
   const where = defectListWhere(user, q, now);
   const order = orderBy(q.sort, DEFECT_SORT, '-reportedAt', defects.id);
   const total = defectListCount(where);
   const rows = defectListSelect().where(where).orderBy(...order).limit(pageSize).offset(offset).all();
-  return { items: rows.map(defectJson), total, page, pageSize };
+  return { items: rows.map(defectListJson), total, page, pageSize };
 }
 
 /** Largest view the CSV export writes in one file. */
@@ -138,7 +153,7 @@ export const DEFECT_EXPORT_MAX_ROWS = 250_000;
  * Every defect of a filtered view (all pages, the list's sort), read in one statement so the file is one
  * consistent snapshot; 400 when the view is larger than DEFECT_EXPORT_MAX_ROWS.
  */
-export function listDefectsForExport(user: SessionUser, q: DefectListQuery, now = Date.now()): DefectJson[] {
+export function listDefectsForExport(user: SessionUser, q: DefectListQuery, now = Date.now()): DefectCsvSource[] {
   const where = defectListWhere(user, q, now);
   const order = orderBy(q.sort, DEFECT_SORT, '-reportedAt', defects.id);
   const total = defectListCount(where);
@@ -147,7 +162,36 @@ export function listDefectsForExport(user: SessionUser, q: DefectListQuery, now 
       { path: 'reportedFrom', message: 'Too many rows for one file' },
     ]);
   }
-  return defectListSelect().where(where).orderBy(...order).all().map(defectJson);
+  const rows = defectListSelect().where(where).orderBy(...order).all();
+  // Part lines of the view's defects, in chunks (SQLite's variable limit), in the order they were entered.
+  const partsByDefect = new Map<number, DefectCsvPart[]>();
+  const ids = rows.map((r) => r.d.id);
+  for (let i = 0; i < ids.length; i += 500) {
+    const part = getDb()
+      .select({ defectId: defectParts.defectId, partNumber: defectParts.partNumber, description: defectParts.description, quantity: defectParts.quantity, unitCostMinor: defectParts.unitCostMinor })
+      .from(defectParts)
+      .where(inArray(defectParts.defectId, ids.slice(i, i + 500)))
+      .orderBy(defectParts.defectId, defectParts.id)
+      .all();
+    for (const { defectId, ...p } of part) {
+      const list = partsByDefect.get(defectId) ?? [];
+      list.push(p);
+      partsByDefect.set(defectId, list);
+    }
+  }
+  return rows.map((r) => {
+    const j = defectJson(r);
+    return {
+      ...j,
+      depotCode: r.depotCode,
+      repeatOfRef: r.repeatOfRef,
+      membraneCondition: r.d.membraneCondition,
+      sealCondition: r.d.sealCondition,
+      drainCondition: r.d.drainCondition,
+      connectorCondition: r.d.connectorCondition,
+      parts: partsByDefect.get(r.d.id) ?? [],
+    };
+  });
 }
 
 // One record, reporting, changing, lifecycle steps and deleting live in defect-record.ts.

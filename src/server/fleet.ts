@@ -2,15 +2,19 @@
  * Depots, module catalogue and vehicles: lists (scoped to the caller's depots), records, create, change and
  * delete. Writes validate through the same row rules as the imports (src/lib/imports/rows.ts).
  */
-import { and, eq, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, or, sql, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
 import { getDb } from '@/db/client';
-import { defects, depots, modules, userDepots, vehicles } from '@/db/schema';
+import { defects, depots, modules, userDepots, users, vehicleOffRoad, vehicles } from '@/db/schema';
+import { OPEN_STATUS_VALUES, verificationComplete } from '@/lib/defects/transitions';
+import { checkReturnToService, OFF_ROAD_REASON_MAX, unverifiedForRelease } from '@/lib/vehicles/off-road';
 import type { ListResponse, VehicleListQuery } from '@/lib/contracts/lists';
 import { cellsFromObject, validateRecord, type ImportKind, type RowIssue } from '@/lib/imports/rows';
 import { parseVin } from '@/lib/vin/vin';
+import { can } from '@/lib/auth/permissions';
 import { inScope, requireDepotScope, type SessionUser } from './auth';
-import { conflict, HttpError, notFound } from './http';
-import { depotScope, iso, likePattern, orderBy, paging } from './list-helpers';
+import { conflict, HttpError, invalid, notFound } from './http';
+import { depotScope, iso, likePattern, orderBy, paging, separatorFreePattern } from './list-helpers';
 import { applyDepotRow, applyModuleRow, applyVehicleRow } from './imports';
 import { writeAudit, type Actor } from './audit';
 
@@ -37,8 +41,11 @@ function validated<K extends ImportKind>(kind: K, body: Record<string, unknown>)
 
 type DepotDb = typeof depots.$inferSelect;
 
-/** JSON of a depot. */
-export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: number }) {
+/** What keeps a depot from being deleted: every vehicle (retired ones too), defect and person attached to it. */
+export type DepotUsage = { vehicles: number; defects: number; people: number };
+
+/** JSON of a depot; `usage` only for people who may delete depots (the Depots page disables Delete with the reason). */
+export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: number }, usage?: DepotUsage) {
   return {
     id: d.id,
     code: d.code,
@@ -51,6 +58,7 @@ export function depotJson(d: DepotDb, counts?: { vehicles: number; openDefects: 
     inspectionSlotsPerDay: d.inspectionSlotsPerDay,
     timezone: d.timezone,
     ...(counts ?? {}),
+    ...(usage ? { usage } : {}),
     createdAt: iso(d.createdAt),
     updatedAt: iso(d.updatedAt),
   };
@@ -84,6 +92,9 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
       d: depots,
       vehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = "depots"."id" and v.retired_date is null)`,
       openDefects: sql<number>`(select count(*) from defects x where x.depot_id = "depots"."id" and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      allVehicles: sql<number>`(select count(*) from vehicles v where v.depot_id = "depots"."id")`,
+      allDefects: sql<number>`(select count(*) from defects x where x.depot_id = "depots"."id")`,
+      people: sql<number>`(select count(*) from user_depots u where u.depot_id = "depots"."id")`,
     })
     .from(depots)
     .where(where)
@@ -91,7 +102,15 @@ export function listDepots(user: SessionUser, q: { page?: number; pageSize?: num
     .limit(pageSize)
     .offset(offset)
     .all();
-  return { items: rows.map((r) => depotJson(r.d, { vehicles: r.vehicles, openDefects: r.openDefects })), total, page, pageSize };
+  const withUsage = can(user.role, 'depot:write');
+  return {
+    items: rows.map((r) =>
+      depotJson(r.d, { vehicles: r.vehicles, openDefects: r.openDefects }, withUsage ? { vehicles: r.allVehicles, defects: r.allDefects, people: r.people } : undefined),
+    ),
+    total,
+    page,
+    pageSize,
+  };
 }
 
 /** One depot by code, inside the caller's scope (else 404). */
@@ -139,8 +158,8 @@ export function deleteDepot(user: SessionUser, code: string, actor: Actor): void
 
 type ModuleDb = typeof modules.$inferSelect;
 
-/** JSON of a module type. */
-export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects: number }) {
+/** JSON of a module type; `usage` (defects in every depot, which keep it from being deleted) only for people who may delete it. */
+export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects: number }, usage?: { defects: number }) {
   return {
     id: m.id,
     code: m.code,
@@ -149,6 +168,7 @@ export function moduleJson(m: ModuleDb, counts?: { defects: number; openDefects:
     partNumber: m.partNumber,
     supplier: m.supplier,
     ...(counts ?? {}),
+    ...(usage ? { usage } : {}),
     createdAt: iso(m.createdAt),
     updatedAt: iso(m.updatedAt),
   };
@@ -184,6 +204,7 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
       m: modules,
       defects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter})`,
       openDefects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id" and ${scope} ${depotFilter} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
+      allDefects: sql<number>`(select count(*) from defects x where x.module_id = "modules"."id")`,
     })
     .from(modules)
     .where(where)
@@ -191,7 +212,13 @@ export function listModules(user: SessionUser, q: { page?: number; pageSize?: nu
     .limit(pageSize)
     .offset(offset)
     .all();
-  return { items: rows.map((r) => moduleJson(r.m, { defects: r.defects, openDefects: r.openDefects })), total, page, pageSize };
+  const withUsage = can(user.role, 'module:write');
+  return {
+    items: rows.map((r) => moduleJson(r.m, { defects: r.defects, openDefects: r.openDefects }, withUsage ? { defects: r.allDefects } : undefined)),
+    total,
+    page,
+    pageSize,
+  };
 }
 
 /** One module type by code. */
@@ -246,12 +273,23 @@ function vehicleSelectFor(user: SessionUser | null) {
     v: vehicles,
     depotCode: depots.code,
     depotName: depots.name,
+    depotTimeZone: depots.timezone,
+    // Why the vehicle is off road, as written when it was taken off (the open period's reason).
+    offRoadReason: sql<string | null>`(select r.reason from vehicle_off_road r where r.vehicle_id = ${vehicles.id} and r.to_at is null order by r.from_at desc limit 1)`,
     openDefects: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id}${scope} and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified'))`,
     defectCount: sql<number>`(select count(*) from defects x where x.vehicle_id = ${vehicles.id}${scope})`,
   };
 }
 
-type VehicleSel = { v: typeof vehicles.$inferSelect; depotCode: string; depotName: string; openDefects: number; defectCount: number };
+type VehicleSel = {
+  v: typeof vehicles.$inferSelect;
+  depotCode: string;
+  depotName: string;
+  depotTimeZone: string | null;
+  offRoadReason: string | null;
+  openDefects: number;
+  defectCount: number;
+};
 
 /** JSON of a vehicle. */
 export function vehicleJson(r: VehicleSel) {
@@ -270,11 +308,13 @@ export function vehicleJson(r: VehicleSel) {
     retiredDate: v.retiredDate,
     depotCode: r.depotCode,
     depotName: r.depotName,
+    depotTimeZone: r.depotTimeZone,
     parking: v.parking,
     washesPerMonth: v.washesPerMonth,
     modelYear: v.modelYear,
     status: v.retiredDate ? 'retired' : v.offRoadSinceAt ? 'off_road' : 'active',
     offRoadSince: iso(v.offRoadSinceAt),
+    offRoadReason: v.offRoadSinceAt !== null && !v.retiredDate ? r.offRoadReason : null,
     openDefects: r.openDefects,
     defects: r.defectCount,
     version: v.version,
@@ -300,6 +340,7 @@ const VEHICLE_SORT = {
   washesPerMonth: vehicles.washesPerMonth,
   modelYear: vehicles.modelYear,
   openDefects: vehicleSelectFor(null).openDefects,
+  offRoadSince: vehicles.offRoadSinceAt,
   createdAt: vehicles.createdAt,
   updatedAt: vehicles.updatedAt,
 };
@@ -318,11 +359,14 @@ export function listVehicles(user: SessionUser, q: VehicleListQuery): ListRespon
   if (q.status === 'off_road') conds.push(sql`${vehicles.offRoadSinceAt} is not null and ${vehicles.retiredDate} is null`);
   if (q.q) {
     const p = likePattern(q.q.trim());
+    const bare = separatorFreePattern(q.q);
     conds.push(
       or(
         sql`${vehicles.vin} like ${p} escape '\\'`,
         sql`${vehicles.fleetNumber} like ${p} escape '\\'`,
         sql`${vehicles.registration} like ${p} escape '\\'`,
+        // Plates and fleet numbers as people type them: "GHQ4941J" or "ghq 4941" finds "GHQ-4941-J".
+        bare ? sql`${vehicles.searchKey} like ${bare} escape '\\'` : undefined,
         sql`${vehicles.make} like ${p} escape '\\'`,
         sql`${vehicles.model} like ${p} escape '\\'`,
       ),
@@ -342,8 +386,102 @@ export function listVehicles(user: SessionUser, q: VehicleListQuery): ListRespon
     .limit(pageSize)
     .offset(offset)
     .all();
-  return { items: rows.map(vehicleJson), total, page, pageSize };
+  // Off-road rows answer "why" with the open defects keeping them off road (one query for the page).
+  const offIds = rows.filter((r) => r.v.offRoadSinceAt !== null && !r.v.retiredDate).map((r) => r.v.id);
+  const openByVehicle = openDefectsOf(user, offIds);
+  const items = rows.map((r) => {
+    const j = vehicleJson(r);
+    return j.status === 'off_road' ? { ...j, offRoadDefects: openByVehicle.get(r.v.id) ?? [] } : j;
+  });
+  return { items, total, page, pageSize };
 }
+
+/** An open defect of a vehicle as the off-road views show it. */
+export type OffRoadDefect = {
+  id: number;
+  ref: string;
+  status: (typeof OPEN_STATUS_VALUES)[number];
+  position: string;
+  moduleCode: string;
+  moduleName: string;
+  moduleFunction: string;
+  /** The release verification is recorded complete. */
+  verified: boolean;
+  /** Still needs the release verification before the vehicle is released (src/lib/vehicles/off-road.ts). */
+  needsVerification: boolean;
+};
+
+/** The open defects (that the caller may see) of some vehicles, oldest first, with whether each still needs the release verification. */
+export function openDefectsOf(user: SessionUser, vehicleIds: number[]): Map<number, OffRoadDefect[]> {
+  const out = new Map<number, OffRoadDefect[]>();
+  if (vehicleIds.length === 0) return out;
+  const rows = getDb()
+    .select({
+      id: defects.id,
+      vehicleId: defects.vehicleId,
+      ref: defects.ref,
+      status: defects.status,
+      position: defects.position,
+      moduleCode: modules.code,
+      moduleName: modules.name,
+      moduleFunction: modules.function,
+      reinit: defects.verifiedReinit,
+      reversal: defects.verifiedReversal,
+      verifiedById: defects.verifiedById,
+      verifiedAt: defects.verifiedAt,
+    })
+    .from(defects)
+    .innerJoin(modules, eq(modules.id, defects.moduleId))
+    .where(and(inArray(defects.vehicleId, vehicleIds), inArray(defects.status, [...OPEN_STATUS_VALUES]), depotScope(user, defects.depotId)))
+    .orderBy(asc(defects.reportedAt), asc(defects.id))
+    .all();
+  const list = rows.map((r) => ({
+    id: r.id,
+    vehicleId: r.vehicleId,
+    ref: r.ref,
+    status: r.status as OffRoadDefect['status'],
+    position: r.position,
+    moduleCode: r.moduleCode,
+    moduleName: r.moduleName,
+    moduleFunction: r.moduleFunction,
+    verified: verificationComplete({ reinitialised: r.reinit, reversalVerified: r.reversal, byUserId: r.verifiedById, atMs: r.verifiedAt }),
+  }));
+  const needs = new Set(unverifiedForRelease(list).map((d) => d.id));
+  for (const { vehicleId, ...d } of list) {
+    const forVehicle = out.get(vehicleId) ?? [];
+    forVehicle.push({ ...d, needsVerification: needs.has(d.id) });
+    out.set(vehicleId, forVehicle);
+  }
+  return out;
+}
+
+const endedBy = alias(users, 'ended_by');
+
+/** A vehicle's off-road periods, newest first: since when, until when, who and why each way. */
+export function listOffRoadHistory(vehicleId: number, limit = 50) {
+  return getDb()
+    .select({ p: vehicleOffRoad, startedBy: users.name, endedBy: endedBy.name })
+    .from(vehicleOffRoad)
+    .leftJoin(users, eq(users.id, vehicleOffRoad.startedById))
+    .leftJoin(endedBy, eq(endedBy.id, vehicleOffRoad.endedById))
+    .where(eq(vehicleOffRoad.vehicleId, vehicleId))
+    .orderBy(desc(vehicleOffRoad.fromAt), desc(vehicleOffRoad.id))
+    .limit(limit)
+    .all()
+    .map(({ p, startedBy, endedBy: ended }) => ({
+      id: p.id,
+      from: iso(p.fromAt)!,
+      to: iso(p.toAt),
+      reason: p.reason,
+      startedBy: startedBy ?? p.startedActor,
+      returnReason: p.returnReason,
+      endedBy: ended ?? p.endedActor,
+      openDefectsAtReturn: p.openDefectsAtReturn ? p.openDefectsAtReturn.split(' ') : [],
+      unverifiedAtReturn: p.unverifiedAtReturn ? p.unverifiedAtReturn.split(' ') : [],
+    }));
+}
+/** One off-road period as the vehicle page shows it. */
+export type OffRoadPeriod = ReturnType<typeof listOffRoadHistory>[number];
 
 /** One vehicle by VIN inside the caller's depots (else 404). */
 export function getVehicle(user: SessionUser, vinRaw: string): VehicleJson {
@@ -388,18 +526,73 @@ export function updateVehicle(user: SessionUser, vin: string, body: Record<strin
   const { value, warnings } = validated('vehicles', merged);
   const depotId = depotForWrite(user, value.depotCode);
   const db = getDb();
+  const offRoadChange = body.offRoad === undefined ? null : readOffRoadChange(body);
+  const was = current.status === 'off_road';
+  // A return to service is checked before anything is written: a reason, and an explicit confirmation when an
+  // open defect still needs the release verification (src/lib/vehicles/off-road.ts).
+  let open: OffRoadDefect[] = [];
+  if (offRoadChange && !offRoadChange.off && was) {
+    open = openDefectsOf(user, [current.id]).get(current.id) ?? [];
+    const check = checkReturnToService({
+      reason: offRoadChange.reason,
+      confirmUnverified: offRoadChange.confirmUnverified,
+      openDefects: open,
+    });
+    if (!check.ok && check.code === 'reason_required') throw invalid(check.message, [{ path: 'offRoadReason', message: check.message }], 422);
+    if (!check.ok && check.code === 'unverified') throw conflict(check.message, { unverified: open.filter((d) => d.needsVerification) });
+  }
   db.transaction((tx) => {
     applyVehicleRow(tx, value, depotId, actor, 'api');
-    if (body.offRoad !== undefined) {
-      const off = body.offRoad === true || body.offRoad === 'true' || body.offRoad === 1;
-      const was = current.status === 'off_road';
-      if (off !== was) {
-        tx.update(vehicles).set({ offRoadSinceAt: off ? Date.now() : null, version: sql`${vehicles.version} + 1`, updatedAt: Date.now() }).where(eq(vehicles.id, current.id)).run();
-        writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'update', field: 'offRoad', oldValue: String(was), newValue: String(off) });
+    if (offRoadChange && offRoadChange.off !== was && !current.retiredDate) {
+      const now = Date.now();
+      const who = 'userId' in actor ? { id: actor.userId, actor: null } : { id: null, actor: actor.system };
+      tx.update(vehicles).set({ offRoadSinceAt: offRoadChange.off ? now : null, version: sql`${vehicles.version} + 1`, updatedAt: now }).where(eq(vehicles.id, current.id)).run();
+      writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'update', field: 'offRoad', oldValue: String(was), newValue: String(offRoadChange.off) }, now);
+      if (offRoadChange.off) {
+        tx.insert(vehicleOffRoad).values({ vehicleId: current.id, fromAt: now, reason: offRoadChange.reason, startedById: who.id, startedActor: who.actor }).run();
+        if (offRoadChange.reason) writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'off_road', field: 'offRoadReason', newValue: offRoadChange.reason }, now);
+      } else {
+        const unverified = open.filter((d) => d.needsVerification).map((d) => d.ref);
+        const end = {
+          toAt: now,
+          returnReason: offRoadChange.reason,
+          endedById: who.id,
+          endedActor: who.actor,
+          openDefectsAtReturn: open.length ? open.map((d) => d.ref).join(' ') : null,
+          unverifiedAtReturn: unverified.length ? unverified.join(' ') : null,
+        };
+        const period = tx
+          .select({ id: vehicleOffRoad.id })
+          .from(vehicleOffRoad)
+          .where(and(eq(vehicleOffRoad.vehicleId, current.id), isNull(vehicleOffRoad.toAt)))
+          .orderBy(desc(vehicleOffRoad.fromAt))
+          .get();
+        const sinceMs = current.offRoadSince ? Date.parse(current.offRoadSince) : now;
+        if (period) tx.update(vehicleOffRoad).set(end).where(eq(vehicleOffRoad.id, period.id)).run();
+        else tx.insert(vehicleOffRoad).values({ vehicleId: current.id, fromAt: sinceMs, ...end }).run(); // taken off before the history was kept
+        writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'return_to_service', field: 'offRoadReturnReason', newValue: offRoadChange.reason }, now);
+        if (unverified.length) {
+          writeAudit(tx, actor, { entity: 'vehicle', entityId: current.vin, action: 'return_to_service', field: 'releasedWithUnverified', newValue: unverified.join(' ') }, now);
+        }
       }
     }
   });
   return { vehicle: getVehicle(user, current.vin), warnings };
+}
+
+/** The off-road part of a vehicle change: `offRoad`, an optional `offRoadReason` (why; required to return) and `confirmUnverified`. */
+function readOffRoadChange(body: Record<string, unknown>): { off: boolean; reason: string | null; confirmUnverified: boolean } {
+  const off = body.offRoad === true || body.offRoad === 'true' || body.offRoad === 1;
+  if (!off && !(body.offRoad === false || body.offRoad === 'false' || body.offRoad === 0)) {
+    throw invalid('offRoad must be true or false.', [{ path: 'offRoad', message: 'Not a boolean' }]);
+  }
+  const raw = body.offRoadReason;
+  if (raw !== undefined && raw !== null && typeof raw !== 'string') throw invalid('offRoadReason must be text.', [{ path: 'offRoadReason', message: 'Not text' }]);
+  const reason = typeof raw === 'string' && raw.trim() !== '' ? raw.trim() : null;
+  if (reason && reason.length > OFF_ROAD_REASON_MAX) {
+    throw invalid(`offRoadReason is at most ${OFF_ROAD_REASON_MAX} characters.`, [{ path: 'offRoadReason', message: 'Too long' }]);
+  }
+  return { off, reason, confirmUnverified: body.confirmUnverified === true };
 }
 
 /** Delete a vehicle that has no defects (409 otherwise; retire it instead). */

@@ -7,8 +7,10 @@
 import { eq, inArray } from 'drizzle-orm';
 import { getDb, type Db } from '@/db/client';
 import { auditLog, defectCodes, defects, depots, modules, vehicles } from '@/db/schema';
-import { CsvFormatError, readCsv } from '@/lib/imports/csv-read';
+import { CsvFormatError, readCsv, type CsvTable } from '@/lib/imports/csv-read';
 import {
+  recordLabel,
+  recordReferences,
   validateRows,
   type DefectRow,
   type DepotRow,
@@ -18,6 +20,7 @@ import {
   type VehicleRow,
 } from '@/lib/imports/rows';
 import { parseInstant } from '@/lib/dates/dates';
+import { vehicleSearchKey } from '@/lib/vehicles/search-key';
 import type { Actor } from './audit';
 import { refreshRepeats } from './repeats';
 import { assignDefectRefs } from './defect-refs';
@@ -32,6 +35,12 @@ export type ImportResult = {
   unchanged: number;
   errors: RowIssue[];
   warnings: RowIssue[];
+  /**
+   * Where each row named by an error or warning sits in the sheet: the file's data rows are numbered from 1
+   * (CONTRACT.md), `line` is the spreadsheet line (the header usually being line 1), `record` the row's code, VIN or
+   * ref as written. Row 0 is the header.
+   */
+  issueRows: Array<{ row: number; line: number; record: string | null }>;
 };
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -120,7 +129,8 @@ function upsertByKey<V extends Record<string, unknown>>(
     const set: Record<string, unknown> = { ...r.values, updatedAt: Date.now() };
     if (bumpVersion) set.version = Number(prev.version ?? 1) + 1;
     tx.update(table).set(set).where(eq((table as typeof vehicles).id, prev.id)).run();
-    audit.updated(entity, entity === 'vehicle' ? r.key : String(prev.id), prev, r.values, fields);
+    // The search key follows the registration and fleet number; it is not a change of its own in the audit trail.
+    audit.updated(entity, entity === 'vehicle' ? r.key : String(prev.id), prev, r.values, fields.filter((f) => f !== 'searchKey'));
     out[i] = { outcome: 'updated', id: prev.id };
   });
   for (const part of chunked(inserts, 200)) {
@@ -157,7 +167,7 @@ export function applyVehicleRows(tx: Tx, rows: Array<{ row: VehicleRow; depotId:
     'vehicle',
     rows.map(({ row, depotId }) => {
       const { depotCode: _code, ...rest } = row;
-      return { key: row.vin, values: { ...rest, depotId } };
+      return { key: row.vin, values: { ...rest, depotId, searchKey: vehicleSearchKey(row.registration, row.fleetNumber) } };
     }),
     audit,
     true,
@@ -309,7 +319,7 @@ function chunked<T>(items: T[], size = 500): T[][] {
 
 /** Run an import from CSV text. Never writes anything when `errors` is non-empty. */
 export function runImport(kind: ImportKind, text: string, opts: { dryRun: boolean; actor: Actor }): ImportResult {
-  const result: ImportResult = { kind, dryRun: opts.dryRun, rows: 0, inserted: 0, updated: 0, unchanged: 0, errors: [], warnings: [] };
+  const result: ImportResult = { kind, dryRun: opts.dryRun, rows: 0, inserted: 0, updated: 0, unchanged: 0, errors: [], warnings: [], issueRows: [] };
   let table;
   try {
     table = readCsv(text);
@@ -326,20 +336,21 @@ export function runImport(kind: ImportKind, text: string, opts: { dryRun: boolea
   result.errors.push(...v.errors);
   result.warnings.push(...v.warnings);
 
-  // Resolve references against the database.
+  // Resolve references against the database, for every row (valid or not), so that an unknown VIN, depot or
+  // module type is reported in the same pass as the field problems.
   const depotByCode = new Map<string, { id: number; timezone: string | null }>();
   const moduleByCode = new Map<string, number>();
   const vehicleByVin = new Map<string, { id: number; depotId: number }>();
+  const refs = v.errors.some((e) => e.row === 0) ? [] : recordReferences(kind, table);
   if (kind === 'vehicles') {
     for (const d of db.select({ id: depots.id, code: depots.code, timezone: depots.timezone }).from(depots).all()) depotByCode.set(d.code, d);
-    for (const r of v.rows) {
-      const row = r.value as VehicleRow;
-      if (!depotByCode.has(row.depotCode)) result.errors.push({ row: r.row, column: 'depot_code', message: `No depot with code ${row.depotCode}; import depots first.` });
+    for (const r of refs) {
+      if (!depotByCode.has(r.value)) result.errors.push({ row: r.row, column: 'depot_code', message: `No depot with code ${r.value}; import depots first.` });
     }
   }
   if (kind === 'defects') {
     for (const m of db.select({ id: modules.id, code: modules.code }).from(modules).all()) moduleByCode.set(m.code, m.id);
-    const vins = [...new Set(v.rows.map((r) => (r.value as DefectRow).vin))];
+    const vins = [...new Set(refs.filter((r) => r.column === 'vin').map((r) => r.value))];
     for (const part of chunked(vins)) {
       for (const x of db.select({ id: vehicles.id, vin: vehicles.vin, depotId: vehicles.depotId }).from(vehicles).where(inArray(vehicles.vin, part)).all()) {
         vehicleByVin.set(x.vin, x);
@@ -347,15 +358,16 @@ export function runImport(kind: ImportKind, text: string, opts: { dryRun: boolea
     }
     const tz = new Map(db.select({ id: depots.id, timezone: depots.timezone }).from(depots).all().map((d) => [d.id, d.timezone]));
     for (const [, veh] of vehicleByVin) depotByCode.set(`#${veh.depotId}`, { id: veh.depotId, timezone: tz.get(veh.depotId) ?? null });
-    for (const r of v.rows) {
-      const row = r.value as DefectRow;
-      if (!vehicleByVin.has(row.vin)) result.errors.push({ row: r.row, column: 'vin', message: `No vehicle with VIN ${row.vin}; import or add the vehicle first.` });
-      if (!moduleByCode.has(row.moduleCode)) result.errors.push({ row: r.row, column: 'module_code', message: `No module type with code ${row.moduleCode} in the catalogue.` });
+    for (const r of refs) {
+      if (r.column === 'vin' && !vehicleByVin.has(r.value)) result.errors.push({ row: r.row, column: 'vin', message: `No vehicle with VIN ${r.value}; import or add the vehicle first.` });
+      if (r.column === 'module_code' && !moduleByCode.has(r.value)) result.errors.push({ row: r.row, column: 'module_code', message: `No module type with code ${r.value} in the catalogue.` });
     }
   }
   if (result.errors.length > 0) {
+    // Stable: within a row, the field problems come first, then the references.
     result.errors.sort((a, b) => a.row - b.row);
     if (result.errors.length > MAX_LISTED_ERRORS) result.errors = result.errors.slice(0, MAX_LISTED_ERRORS);
+    result.issueRows = issueRows(kind, table, result);
     return result;
   }
 
@@ -391,5 +403,15 @@ export function runImport(kind: ImportKind, text: string, opts: { dryRun: boolea
   } catch (e) {
     if (!(e instanceof DryRunRollback)) throw e;
   }
+  result.issueRows = issueRows(kind, table, result);
   return result;
+}
+
+/** The spreadsheet line and identity of every row an error or warning names (see ImportResult.issueRows). */
+function issueRows(kind: ImportKind, table: CsvTable, result: Pick<ImportResult, 'errors' | 'warnings'>): ImportResult['issueRows'] {
+  const named = new Set([...result.errors, ...result.warnings].map((i) => i.row));
+  const out: ImportResult['issueRows'] = [];
+  if (named.has(0)) out.push({ row: 0, line: table.headerLine, record: null });
+  for (const rec of table.records) if (named.has(rec.row)) out.push({ row: rec.row, line: rec.line, record: recordLabel(kind, rec.cells) });
+  return out;
 }

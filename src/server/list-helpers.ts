@@ -1,6 +1,7 @@
 /** Small helpers shared by the list services: paging, sorting and depot scope conditions. */
 import { asc, desc, inArray, sql, type SQL, type Column } from 'drizzle-orm';
 import { DEFAULT_PAGE_SIZE, parseSort, SortFieldError } from '@/lib/contracts/lists';
+import { stripSeparators } from '@/lib/vehicles/search-key';
 import type { SessionUser } from './auth';
 import { invalid } from './http';
 
@@ -33,6 +34,17 @@ export function depotScope(user: SessionUser, column: Column): SQL | undefined {
 /** Escape LIKE wildcards in user search text. */
 export function likePattern(q: string): string {
   return `%${q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+}
+
+/**
+ * The LIKE pattern of search text without separators (`"ghq 4941"` → `%GHQ4941%`), for `vehicles.search_key` (the
+ * registration and fleet number stored without separators, src/lib/vehicles/search-key.ts); null when fewer than two
+ * characters are left.
+ */
+export function separatorFreePattern(q: string): string | null {
+  const bare = stripSeparators(q.trim());
+  if (bare.length < 2) return null;
+  return likePattern(bare);
 }
 
 /** Comma-separated filter values (`status=reported,diagnosing`). */

@@ -96,6 +96,7 @@ export function getOverview(user: SessionUser, now = Date.now()): OverviewRespon
         vin: vehicles.vin,
         fleetNumber: vehicles.fleetNumber,
         depotCode: depots.code,
+        depotTimeZone: depots.timezone,
         moduleCode: modules.code,
         symptom: defects.symptom,
         repeatOfId: defects.repeatOfId,
@@ -169,7 +170,8 @@ export function getOverview(user: SessionUser, now = Date.now()): OverviewRespon
   const moduleFigures = moduleNames
     .map((m) => ({ code: m.code, name: m.name, ...counts(byModule.get(m.id)) }))
     .sort((a, b) => b.reported - a.reported || b.repeats - a.repeats || a.code.localeCompare(b.code));
-  const trend = fillMonths(months, byMonth).map(({ month, from, to, reported, repeats, rate }) => ({ month, from, to, reported, repeats, rate }));
+  // The month that is still running is counted so far; the Overview marks it so it is not read as a whole month.
+  const trend = fillMonths(months, byMonth).map(({ month, from, to, toMs, reported, repeats, rate }) => ({ month, from, to, reported, repeats, rate, partial: toMs > now }));
   const windowTotals = counts({ reported: windowRows.reduce((s, r) => s + r.reported, 0), repeats: windowRows.reduce((s, r) => s + (r.repeats ?? 0), 0) });
 
   return {
@@ -178,6 +180,7 @@ export function getOverview(user: SessionUser, now = Date.now()): OverviewRespon
     allDepots: user.depotIds === null,
     repeatWindowDays: repeatWindowDays(db),
     windowFrom: windowStart.from,
+    windowTo: new Date(now).toISOString().slice(0, 10),
     staleDays: OVERVIEW_STALE_DAYS,
     vehiclesInService: depotFigures.reduce((s, d) => s + d.vehiclesInService, 0),
     offRoad: depotFigures.reduce((s, d) => s + d.offRoad, 0),

@@ -4,7 +4,10 @@
  * cookie-authenticated writes (403), and sends signed-out visitors of pages to the sign-in page.
  * Role and depot checks follow in each route through src/server/auth.ts.
  */
+import { STATUS_CODES } from 'node:http';
 import type { APIContext, MiddlewareNext } from 'astro';
+import { can } from '@/lib/auth/permissions';
+import { pageArea } from '@/lib/auth/page-access';
 import type { SessionUser } from './auth';
 import { errorResponse, forbidden, HttpError, unauthenticated } from './http';
 import { loadSessionUser, userForToken } from './users';
@@ -16,6 +19,8 @@ const PUBLIC_PAGES = new Set(['/signin', '/signout']);
 /** The Auth.js actions Seepline uses or that Auth.js answers on its own (credentials sign-in only). */
 const AUTH_ACTIONS = new Set(['csrf', 'session', 'providers', 'signin', 'signout', 'callback', 'error', 'verify-request']);
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+/** The page shown (status 403) when a role may not open an area; see src/pages/not-allowed.astro. */
+export const NOT_ALLOWED_PAGE = '/not-allowed';
 
 /** Paths that need no sign-in. */
 export function isPublicPath(path: string): boolean {
@@ -89,5 +94,23 @@ export async function guardRequest(ctx: APIContext, next: MiddlewareNext, readSe
     const back = path === '/' ? '' : `?next=${encodeURIComponent(path + ctx.url.search)}`;
     return ctx.redirect(`/signin${back}`, 302);
   }
-  return next();
+  // A page of an area the role may not open: say so (403) on the page asked for, instead of sending the
+  // person elsewhere without a word.
+  const area = user ? pageArea(path) : null;
+  if (user && area && !can(user.role, area.permission)) {
+    ctx.locals.denied = { area: area.area, who: area.who, path };
+    return withReasonPhrase(await next(NOT_ALLOWED_PAGE));
+  }
+  return withReasonPhrase(await next());
+}
+
+/**
+ * Astro answers a page that sets its own status (404, 403) with the reason phrase "OK"; give such a response the
+ * standard phrase ("Not Found", "Forbidden") so that the status line is honest.
+ */
+export function withReasonPhrase(res: Response): Response {
+  if (res.status === 200 || (res.statusText && res.statusText !== 'OK')) return res;
+  const phrase = STATUS_CODES[res.status];
+  if (!phrase || res.status < 200) return res;
+  return new Response(res.body, { status: res.status, statusText: phrase, headers: res.headers });
 }

@@ -3,6 +3,7 @@
  * vehicle's repeat links in the same transaction as the change and its audit rows, and reports how many
  * defects changed; a dry run does the same work inside a transaction that is rolled back. The labour rate
  * applies to costs worked out from then on (a defect's cost is recomputed when its parts or labour are saved).
+ * The currency names the unit of every amount; changing it converts nothing (amounts are kept as entered).
  */
 import { eq, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
@@ -11,6 +12,7 @@ import type { Settings, SettingsChangeResult, SettingsPatch } from '@/lib/contra
 import { writeAudit, type Actor } from './audit';
 import { refreshRepeats, repeatWindowDays } from './repeats';
 import { labourRateMinorPerHour } from './defect-record';
+import { CURRENCY_KEY, currencyCode } from './currency';
 
 /** Key of the repeat window in the settings table (read by src/server/repeats.ts). */
 export const REPEAT_WINDOW_KEY = 'repeat_window_days';
@@ -20,7 +22,7 @@ export const LABOUR_RATE_KEY = 'labour_rate_minor_per_hour';
 /** The settings in force (defaults where none is stored). */
 export function getSettings(): Settings {
   const db = getDb();
-  return { repeatWindowDays: repeatWindowDays(db), labourRateMinorPerHour: labourRateMinorPerHour(db) };
+  return { repeatWindowDays: repeatWindowDays(db), labourRateMinorPerHour: labourRateMinorPerHour(db), currency: currencyCode(db) };
 }
 
 /** Thrown inside a dry run's transaction to roll it back, carrying the result out. */
@@ -45,11 +47,17 @@ export function updateSettings(patch: SettingsPatch, actor: Actor, opts: { dryRu
         else tx.insert(settings).values({ key: LABOUR_RATE_KEY, value: String(rate) }).onConflictDoUpdate({ target: settings.key, set: { value: String(rate) } }).run();
         writeAudit(tx, actor, { entity: 'settings', entityId: LABOUR_RATE_KEY, action: 'update', field: LABOUR_RATE_KEY, oldValue: rateBefore === null ? null : String(rateBefore), newValue: rate === null ? null : String(rate) });
       }
+      const currencyBefore = currencyCode(tx);
+      const currency = patch.currency ?? currencyBefore;
+      if (currency !== currencyBefore) {
+        tx.insert(settings).values({ key: CURRENCY_KEY, value: currency }).onConflictDoUpdate({ target: settings.key, set: { value: currency } }).run();
+        writeAudit(tx, actor, { entity: 'settings', entityId: CURRENCY_KEY, action: 'update', field: CURRENCY_KEY, oldValue: currencyBefore, newValue: currency });
+      }
       const links = () => new Map(tx.select({ id: defects.id, repeatOfId: defects.repeatOfId }).from(defects).all().map((r) => [r.id, r.repeatOfId]));
       const old = links();
       const repeatsBefore = [...old.values()].filter((v) => v !== null).length;
       let result: SettingsChangeResult = {
-        settings: { repeatWindowDays: before, labourRateMinorPerHour: rate },
+        settings: { repeatWindowDays: before, labourRateMinorPerHour: rate, currency },
         dryRun,
         recompute: { defectsChanged: 0, repeatsBefore, repeatsAfter: repeatsBefore, vehiclesChecked: 0 },
       };
@@ -66,7 +74,7 @@ export function updateSettings(patch: SettingsPatch, actor: Actor, opts: { dryRu
         let changed = 0;
         for (const [id, was] of old) if ((now.get(id) ?? null) !== was) changed++;
         const repeatsAfter = [...now.values()].filter((v) => v !== null).length;
-        result = { settings: { repeatWindowDays: next, labourRateMinorPerHour: rate }, dryRun, recompute: { defectsChanged: changed, repeatsBefore, repeatsAfter, vehiclesChecked: vehicleIds.length } };
+        result = { settings: { repeatWindowDays: next, labourRateMinorPerHour: rate, currency }, dryRun, recompute: { defectsChanged: changed, repeatsBefore, repeatsAfter, vehiclesChecked: vehicleIds.length } };
         writeAudit(tx, actor, { entity: 'settings', entityId: REPEAT_WINDOW_KEY, action: 'update', field: REPEAT_WINDOW_KEY, oldValue: String(before), newValue: String(next) });
         writeAudit(tx, actor, {
           entity: 'settings',

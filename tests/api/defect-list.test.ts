@@ -8,7 +8,10 @@ import * as defectsRoute from '../../src/pages/api/defects/index';
 import * as exportRoute from '../../src/pages/api/defects/export';
 import * as importRoute from '../../src/pages/api/import/[kind]';
 import { readCsv } from '../../src/lib/imports/csv-read';
-import { DEFECT_CSV_COLUMNS } from '../../src/lib/exports/defects-csv';
+import { DEFECT_CSV_COLUMNS, DEFECT_CSV_REPORT_COLUMNS } from '../../src/lib/exports/defects-csv';
+import { eq } from 'drizzle-orm';
+import { getDb } from '../../src/db/client';
+import { defectParts, defects, settings } from '../../src/db/schema';
 
 let admin: string, supNth: string, viewerSth: string, techNth: string, techNthId: number, techSth: string;
 const now = Date.now();
@@ -162,10 +165,10 @@ describe('GET /api/defects/export', () => {
     return r.text();
   }
 
-  it('writes every row of the view (not one page), in the list\'s sort, with the import columns', async () => {
+  it('writes every row of the view (not one page), in the list\'s sort, with the import columns then the report columns', async () => {
     const csv = await exportCsv('?depot=NTH&sort=reportedAt&page=2&pageSize=1');
     const t = readCsv(csv);
-    expect(t.headers).toEqual([...DEFECT_CSV_COLUMNS]);
+    expect(t.headers).toEqual([...DEFECT_CSV_COLUMNS, ...DEFECT_CSV_REPORT_COLUMNS]);
     expect(t.records.map((r) => r.cells.ref)).toEqual(['T-001', 'T-002', 'T-003', 'T-005', 'T-004']);
   });
   it('applies the same filters as the list', async () => {
@@ -178,6 +181,28 @@ describe('GET /api/defects/export', () => {
     const r = await call(importRoute, 'POST', '/api/import/defects?dryRun=1', { token: admin, params: { kind: 'defects' }, body: csv, headers: { 'content-type': 'text/csv' } });
     expect(r.status).toBe(200);
     expect(await body(r)).toMatchObject({ inserted: 0, updated: 0, unchanged: 7, errors: [] });
+  });
+  it('writes status, depot, findings, parts, labour and cost with the currency in force', async () => {
+    const db = getDb();
+    const id = db.select({ id: defects.id }).from(defects).where(eq(defects.ref, 'T-005')).get()!.id;
+    db.update(defects).set({ labourMinutes: 45, costMinor: 12345, sealCondition: 'perished' }).where(eq(defects.id, id)).run();
+    db.insert(defectParts).values([
+      { defectId: id, partNumber: 'BL-LA-2210', description: 'Lock actuator', quantity: 1, unitCostMinor: 6420 },
+      { defectId: id, partNumber: 'CLIP-4', description: null, quantity: 3, unitCostMinor: 125 },
+    ]).run();
+    db.insert(settings).values({ key: 'currency', value: 'EUR' }).run();
+    try {
+      const t = readCsv(await exportCsv('?ref=T-005'));
+      const c = t.records[0]!.cells;
+      expect([c.ref, c.status, c.depot_code, c.seal_condition, c.labour_minutes]).toEqual(['T-005', 'awaiting_parts', 'NTH', 'perished', '45']);
+      expect(c.parts).toBe('BL-LA-2210 ×1 (Lock actuator); CLIP-4 ×3');
+      // 64.20 + 3 × 1.25 = 67.95
+      expect([c.parts_cost, c.cost, c.currency]).toEqual(['67.95', '123.45', 'EUR']);
+      const other = readCsv(await exportCsv('?ref=T-004')).records[0]!.cells;
+      expect([other.status, other.parts, other.cost, other.currency]).toEqual(['reported', '', '', '']);
+    } finally {
+      db.delete(settings).where(eq(settings.key, 'currency')).run();
+    }
   });
   it('keeps to the caller\'s depots', async () => {
     expect(readCsv(await exportCsv('', viewerSth)).records.map((r) => r.cells.ref).sort()).toEqual(['T-006', 'T-007']);

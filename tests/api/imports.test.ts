@@ -137,6 +137,36 @@ describe('defects', () => {
     expect(errs).toEqual(expect.arrayContaining(['1:dtcs', '2:vin', '3:position', '3:moisture']));
     expect(count('defects')).toBe(before);
   });
+  it('reports every problem of a row in one pass: field problems, unknown VIN and unknown module together', async () => {
+    const before = count('defects');
+    const unknownVin = makeVin(952);
+    const csv =
+      header +
+      `QA-IMP-001,${vin},2024-02-10,FL,DCM-1,ok,,,,,,\n` +
+      '\n' + // a blank line in the sheet
+      `QA-IMP-002,${unknownVin},2024-02-31,XX,WLR-7,x,B12G4,wet,,,-5,\n` +
+      `QA-IMP-003,${vin},2024-02-12,FR,DCM-1,ok,,,,,,\n`;
+    const res = await post('defects', csv);
+    expect(res.status).toBe(422);
+    const r = await body(res);
+    const row2 = r.errors.filter((e: { row: number }) => e.row === 2).map((e: { column: string }) => e.column);
+    // The field problems and both unknown references of row 2, in one answer.
+    expect(row2).toEqual(expect.arrayContaining(['reported_at', 'position', 'dtcs', 'moisture', 'odometer_km', 'vin', 'module_code']));
+    expect(r.errors.find((e: { column: string }) => e.column === 'vin').message).toContain(unknownVin);
+    expect(r.errors.find((e: { column: string }) => e.column === 'module_code').message).toContain('WLR-7');
+    expect(r.errors.every((e: { row: number }) => e.row === 2)).toBe(true);
+    // Data row 2 is spreadsheet line 4 (header on line 1, QA-IMP-001 on line 2, a blank line 3), named by its ref.
+    expect(r.issueRows).toEqual([{ row: 2, line: 4, record: 'ref QA-IMP-002' }]);
+    expect(r.error.message).toContain('row 2 (spreadsheet line 4)');
+    expect(count('defects')).toBe(before);
+  });
+  it('reports an unknown depot together with the field problems of a vehicle row', async () => {
+    const res = await post('vehicles', 'vin,build_date,in_service_date,depot_code,parking,washes_per_month\n' + `${makeVin(953)},2022-13,2022-04-01,NOPE,boat,1\n`);
+    expect(res.status).toBe(422);
+    const r = await body(res);
+    expect(r.errors.map((e: { column: string }) => e.column).sort()).toEqual(['build_date', 'depot_code', 'parking']);
+    expect(r.issueRows).toEqual([{ row: 1, line: 2, record: `VIN ${makeVin(953)}` }]);
+  });
   it('marks a repeat repair within 90 days of an earlier closed one on the same door', async () => {
     const csv = header + `R-5,${vin},2024-03-20,FL,DCM-1,resets again,,traces,,,,\n`;
     expect((await body(await post('defects', csv))).inserted).toBe(1);

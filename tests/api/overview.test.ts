@@ -83,6 +83,11 @@ describe('getOverview figures (as of 2026-06-15)', () => {
     expect(o.trend[0]).toMatchObject({ from: '2025-07-01', to: '2025-07-31', rate: 0.5 });
     expect(o.trend[1]!.rate).toBeNull();
   });
+  it('marks the month still running (June 2026, as of the 15th) as partial, and only that one', () => {
+    expect(o.trend.filter((m) => m.partial).map((m) => m.month)).toEqual(['2026-06']);
+    expect(o.windowTo).toBe('2026-06-15');
+    expect(o.oldest[0]!.depotTimeZone).toBe('Europe/London');
+  });
   it('counts repeats per depot and per module type', () => {
     expect(o.depots.map((d) => [d.code, ...counts(d)])).toEqual([
       ['NTH', 5, 3, 0.6],

@@ -38,11 +38,11 @@ describe('GET /api/settings', () => {
   it('answers 401 without credentials', async () => {
     expect((await call(settingsRoute, 'GET', '/api/settings')).status).toBe(401);
   });
-  it('gives everyone the repeat window (default 90) and the labour rate (none set), and only admins the change history', async () => {
+  it('gives everyone the repeat window (default 90), the labour rate (none set) and the currency (default GBP), and only admins the change history', async () => {
     const v = await body(await call(settingsRoute, 'GET', '/api/settings', { token: viewer }));
-    expect(v).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null });
+    expect(v).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null, currency: 'GBP' });
     const a = await body(await call(settingsRoute, 'GET', '/api/settings', { token: admin }));
-    expect(a).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null, changes: [] });
+    expect(a).toEqual({ repeatWindowDays: 90, labourRateMinorPerHour: null, currency: 'GBP', changes: [] });
   });
 });
 
@@ -63,7 +63,11 @@ describe('PATCH /api/settings', () => {
     [{ repeatWindowDays: 12.5 }, 'repeatWindowDays'],
     [{ repeatWindowDays: '30' }, 'repeatWindowDays'],
     [{}, 'repeatWindowDays'],
-    [{ repeatWindowDays: 30, currency: 'EUR' }, ''],
+    [{ repeatWindowDays: 30, colour: 'red' }, ''],
+    [{ currency: 'JPY' }, 'currency'],
+    [{ currency: 'XYZ' }, 'currency'],
+    [{ currency: 'pounds' }, 'currency'],
+    [{ currency: 978 }, 'currency'],
     [{ labourRateMinorPerHour: -1 }, 'labourRateMinorPerHour'],
     [{ labourRateMinorPerHour: 45.5 }, 'labourRateMinorPerHour'],
     [{ labourRateMinorPerHour: '4800' }, 'labourRateMinorPerHour'],
@@ -87,7 +91,7 @@ describe('PATCH /api/settings', () => {
     const r = await patch(admin, { repeatWindowDays: 60 }, '?dryRun=1');
     expect(r.status).toBe(200);
     expect(await body(r)).toEqual({
-      settings: { repeatWindowDays: 60, labourRateMinorPerHour: null },
+      settings: { repeatWindowDays: 60, labourRateMinorPerHour: null, currency: 'GBP' },
       dryRun: true,
       recompute: { defectsChanged: 1, repeatsBefore: 3, repeatsAfter: 2, vehiclesChecked: 4 },
     });
@@ -100,7 +104,7 @@ describe('PATCH /api/settings', () => {
     const r = await patch(admin, { repeat_window_days: 45 });
     expect(r.status).toBe(200);
     expect(await body(r)).toEqual({
-      settings: { repeatWindowDays: 45, labourRateMinorPerHour: null },
+      settings: { repeatWindowDays: 45, labourRateMinorPerHour: null, currency: 'GBP' },
       dryRun: false,
       recompute: { defectsChanged: 2, repeatsBefore: 3, repeatsAfter: 1, vehiclesChecked: 4 },
     });
@@ -138,7 +142,7 @@ describe('PATCH /api/settings', () => {
   it('sets, changes and clears the labour rate with an audit row each time, leaving the repeat links alone', async () => {
     const lastId = Math.max(0, ...settingsAudit().map((a) => a.id));
     const set = await body(await patch(admin, { labourRateMinorPerHour: 4800 }));
-    expect(set).toEqual({ settings: { repeatWindowDays: 90, labourRateMinorPerHour: 4800 }, dryRun: false, recompute: { defectsChanged: 0, repeatsBefore: 3, repeatsAfter: 3, vehiclesChecked: 0 } });
+    expect(set).toEqual({ settings: { repeatWindowDays: 90, labourRateMinorPerHour: 4800, currency: 'GBP' }, dryRun: false, recompute: { defectsChanged: 0, repeatsBefore: 3, repeatsAfter: 3, vehiclesChecked: 0 } });
     expect((await body(await call(settingsRoute, 'GET', '/api/settings', { token: viewer }))).labourRateMinorPerHour).toBe(4800);
     await patch(admin, { labour_rate_minor_per_hour: 5250 });
     const cleared = await body(await patch(admin, { labourRateMinorPerHour: null }));
@@ -151,5 +155,19 @@ describe('PATCH /api/settings', () => {
       ['labour_rate_minor_per_hour', '5250', null],
     ]);
     expect(repeatPairs()).toEqual(['D2<D1', 'D3<D2', 'D6<D5']);
+  });
+
+  it('sets the currency (any case, stored upper case) with an audit row, and a dry run writes nothing', async () => {
+    const lastId = Math.max(0, ...settingsAudit().map((a) => a.id));
+    const preview = await body(await patch(admin, { currency: 'sek' }, '?dryRun=1'));
+    expect(preview.settings.currency).toBe('SEK');
+    expect((await body(await call(settingsRoute, 'GET', '/api/settings', { token: viewer }))).currency).toBe('GBP');
+    const r = await body(await patch(admin, { currency: 'eur' }));
+    expect(r.settings.currency).toBe('EUR');
+    expect((await body(await call(settingsRoute, 'GET', '/api/settings', { token: tech }))).currency).toBe('EUR');
+    const added = settingsAudit().filter((a) => a.id > lastId);
+    expect(added.map((a) => [a.field, a.oldValue, a.newValue, a.userId])).toEqual([['currency', 'GBP', 'EUR', adminId]]);
+    expect((await patch(manager, { currency: 'USD' })).status).toBe(403);
+    expect((await body(await call(settingsRoute, 'GET', '/api/settings', { token: admin }))).currency).toBe('EUR');
   });
 });

@@ -112,6 +112,26 @@ describe('Defects list as the GHQ supervisor', () => {
     const v = validateRows('defects', parsed);
     expect(v.errors).toEqual([]);
     expect(v.rows).toHaveLength(expected.length);
+    // After the import columns: the report columns, with each defect's status and depot.
+    expect(parsed.headers.slice(12, 16)).toEqual(['status', 'depot_code', 'fleet_number', 'registration']);
+    expect(parsed.headers).toEqual(expect.arrayContaining(['parts', 'labour_minutes', 'cost', 'currency']));
+    expect(new Set(parsed.records.map((r) => `${r.cells.status}/${r.cells.depot_code}`))).toEqual(new Set(['closed/GHQ']));
+  });
+
+  it('catches a "from" after the "to" in the filter itself: a clear message, no request, nothing stuck', async () => {
+    const page = h.page;
+    await open(page, '/defects?reportedFrom=2026-11-30&reportedTo=2026-11-01');
+    const message = '"Reported from" is after "Reported to". Change one of the dates to see the list.';
+    await filters(page).getByRole('alert').filter({ hasText: message }).waitFor();
+    expect(await page.getByTestId('defect-count').textContent()).toBe('No list for this date range.');
+    expect(await filters(page).getByLabel('Reported from').getAttribute('aria-invalid')).toBe('true');
+    expect(await page.getByRole('link', { name: 'Download CSV' }).getAttribute('aria-disabled')).toBe('true');
+    // Putting the dates the right way round loads the list.
+    await filters(page).getByLabel('Reported to').fill('2026-12-31');
+    await expect.poll(() => pathOf(page)).toBe('/defects?reportedFrom=2026-11-30&reportedTo=2026-12-31');
+    const n = countDefects("d.code = 'GHQ' and x.reported_at >= ? and x.reported_at <= ?", Date.UTC(2026, 10, 30), Date.UTC(2026, 11, 31, 23, 59, 59, 999));
+    await expect.poll(() => settledCount(page)).toBe(matchLine(n));
+    expect(await filters(page).getByRole('alert').count()).toBe(0);
   });
 });
 
@@ -140,6 +160,23 @@ describe('Defects list as the GHQ technician', () => {
     const link = table(page).getByRole('link', { name: `Repeat of ${repeat!.earlier}` });
     expect(await link.getAttribute('href')).toBe(`/defects/${repeat!.earlier_id}`);
     expect(await link.textContent()).toContain('Repeat');
+  });
+
+  it('keeps "My open defects" to open defects when filters are cleared', async () => {
+    const page = h.page;
+    await open(page, '/defects?mine=1&open=1&module=WLR-2');
+    await filters(page).getByRole('button', { name: 'Clear filters (1)' }).click();
+    await expect.poll(() => pathOf(page)).toBe('/defects?mine=1&open=1');
+    expect(await page.getByRole('tab', { name: 'My open defects' }).getAttribute('aria-selected')).toBe('true');
+    const mine = refsWhere(`x.status in ${OPEN} and (x.assigned_to_id = ? or x.reported_by_id = ?)`, techId, techId);
+    await expect.poll(() => settledCount(page)).toBe(matchLine(mine.length));
+    // The tab's own constraint shows, and cannot be switched off under the tab.
+    const openOnly = filters(page).getByLabel('Open only');
+    expect([await openOnly.isChecked(), await openOnly.isDisabled()]).toEqual([true, true]);
+    // A shared link asking for closed ones under the tab is brought back to the tab's view.
+    await open(page, '/defects?mine=1&status=closed');
+    await expect.poll(() => pathOf(page)).toBe('/defects?mine=1&open=1');
+    await expect.poll(() => settledCount(page)).toBe(matchLine(mine.length));
   });
 
   it('switches to all defects, and a reload stays there', async () => {

@@ -1,5 +1,6 @@
-// Import as a fleet manager: a vehicles file with one bad row is refused with the row, column and message;
-// a good depots file is checked, imported, and then checks as unchanged.
+// Import as a fleet manager: a vehicles file with one bad row is refused with the row (and its spreadsheet line
+// and VIN), column and message; a defects file's problems all come in one pass; a good depots file is checked,
+// imported, and then checks as unchanged.
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -67,13 +68,40 @@ describe('Import', () => {
     const problems = page.getByRole('table', { name: 'Problems in the file' });
     const rows = bodyRows(problems);
     expect(await rows.count()).toBe(1);
-    const cells = (await rows.first().getByRole('cell').allTextContents()).map((t) => t.trim());
-    expect(cells[0]).toBe('2');
-    expect(cells[1]).toBe('parking');
-    expect(cells[2]).toContain('garage');
-    expect(cells[2]).toMatch(/indoor, outdoor, mixed/);
+    const cells = (await rows.first().getByRole('cell').allInnerTexts()).map((t) => t.trim());
+    // Data row 2 (CONTRACT.md numbering) is line 3 of the sheet, under the header; the row says which vehicle it is.
+    expect(cells[0]).toMatch(/^Row 2\s+line 3 in the sheet$/);
+    expect(cells[1]).toBe('VIN SX8BV2DK0RA104258');
+    expect(cells[2]).toBe('parking');
+    expect(cells[3]).toContain('garage');
+    expect(cells[3]).toMatch(/indoor, outdoor, mixed/);
+    await page.getByText('row 1 is line 2', { exact: false }).waitFor();
 
     expect(await importButton.isDisabled()).toBe(true);
+  });
+
+  it('lists every problem of a defects row in one pass, unknown vehicle and module type included', async () => {
+    const page = h.page;
+    h.guard.expectFailure(/\/api\/import\/defects\?dryRun=1$/, 422);
+    await open(page, '/import?kind=defects');
+    await expect.poll(() => page.getByRole('radio', { name: /^Defects/ }).getAttribute('aria-checked')).toBe('true');
+    const vin = (await (await page.request.get(`${baseUrl()}/api/vehicles?pageSize=1&sort=vin`)).json()).items[0].vin as string;
+    const csv =
+      'ref,vin,reported_at,position,module_code,symptom,dtcs,moisture\n' +
+      `QA-IMP-001,${vin},2026-10-01,FL,WLR-2,ok,,\n` +
+      `QA-IMP-002,SB7LS4DE4ND530116,2026-13-01,XX,WLR-7,bad,B12G4,wet\n`;
+    await page.getByLabel('CSV file to import').setInputFiles(writeCsv('defects.csv', csv));
+    await page.getByRole('button', { name: 'Check file' }).click();
+    const problems = page.getByRole('table', { name: 'Problems in the file' });
+    await problems.waitFor();
+    const rows = bodyRows(problems);
+    const texts = await rows.evaluateAll((trs) => trs.map((tr) => [...tr.querySelectorAll('td')].map((td) => (td as HTMLElement).innerText.trim())));
+    // Every problem is in row 2 (spreadsheet line 3), named by its ref; the unknown VIN and module type come with the field problems.
+    expect(new Set(texts.map((t) => t[1]))).toEqual(new Set(['ref QA-IMP-002']));
+    expect(texts.every((t) => /^Row 2\s+line 3 in the sheet$/.test(t[0]!))).toBe(true);
+    expect(texts.map((t) => t[2]).sort()).toEqual(['dtcs', 'module_code', 'moisture', 'position', 'reported_at', 'vin']);
+    expect(texts.find((t) => t[2] === 'vin')![3]).toContain('No vehicle with VIN SB7LS4DE4ND530116');
+    expect(texts.find((t) => t[2] === 'module_code')![3]).toContain('WLR-7');
   });
 
   it('checks, imports and re-checks a good depots file', async () => {

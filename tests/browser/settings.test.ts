@@ -1,6 +1,6 @@
 // The Settings page: admins only; a bad window is refused on the form; a preview of a new repeat window says
-// how many defects would change without writing anything (the other browser files share this database, so
-// this file never saves a change; saving is covered by tests/api/settings.test.ts).
+// how many defects would change without writing anything (the other browser files share this database, so this
+// file saves only the currency, and puts it back; the rest of saving is covered by tests/api/settings.test.ts).
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { E2E_DB_PATH, loginAs, open, pathOf, useBrowser } from './fixtures';
@@ -27,11 +27,12 @@ function wouldChange(days: number): number {
 }
 
 describe('Settings', () => {
-  it('is for admins only: others go back to the Overview', async () => {
+  it('is for admins only: others are told so at the address they asked for (403)', async () => {
     await loginAs(h.context, 'manager');
+    h.guard.expectFailure(/\/settings$/, 403);
     await open(h.page, '/settings');
-    await h.page.waitForURL((u) => u.pathname === '/');
-    expect(pathOf(h.page)).toBe('/');
+    expect(pathOf(h.page)).toBe('/settings');
+    await h.page.getByRole('heading', { level: 1, name: 'Settings is not open to your role' }).waitFor();
   });
 
   it('refuses a window that is not a whole number of days in range', async () => {
@@ -62,5 +63,28 @@ describe('Settings', () => {
     expect((db.prepare("select count(*) as n from settings where key = 'repeat_window_days'").get() as { n: number }).n).toBe(0);
     expect(wouldChange(90)).toBe(0);
     await page.getByText('No changes made here yet.').waitFor();
+  });
+
+  it('sets the currency of every amount, shows it on the labour rate, audits it, and is set back', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'admin');
+    await open(page, '/settings');
+    const currency = page.getByLabel('Currency (ISO 4217)');
+    await expect.poll(() => currency.inputValue()).toBe('GBP');
+    const rate = (db.prepare("select value from settings where key = 'labour_rate_minor_per_hour'").get() as { value: string } | undefined)?.value;
+    const amount = rate ? (Number(rate) / 100).toLocaleString('en-GB', { minimumFractionDigits: 2 }) : null;
+    if (amount) await page.getByText(`In force: £${amount} an hour`).waitFor();
+    expect(await page.getByLabel('Rate per hour (GBP)').count()).toBe(1);
+    await currency.selectOption('EUR');
+    await page.getByRole('button', { name: 'Save the currency' }).click();
+    await page.getByRole('status').filter({ hasText: 'Amounts are now shown in EUR (€123.45 for example).' }).waitFor();
+    if (amount) await page.getByText(`In force: €${amount} an hour`).waitFor();
+    expect(db.prepare("select value from settings where key = 'currency'").get()).toEqual({ value: 'EUR' });
+    await page.getByRole('cell', { name: 'Currency GBP → EUR' }).waitFor();
+    // Back to the demo's currency for the other browser files.
+    await currency.selectOption('GBP');
+    await page.getByRole('button', { name: 'Save the currency' }).click();
+    await page.getByRole('status').filter({ hasText: 'Amounts are now shown in GBP' }).waitFor();
+    expect(db.prepare("select value from settings where key = 'currency'").get()).toEqual({ value: 'GBP' });
   });
 });

@@ -1,6 +1,6 @@
 // Signing in through the real form for every demo role, a wrong password, and signing out.
-import { describe, expect, it } from 'vitest';
-import { baseUrl, demoUser, open, pathOf, signIn, useBrowser, type Role } from './fixtures';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { baseUrl, demoUser, loginAs, open, pathOf, signIn, useBrowser, type Role } from './fixtures';
 
 const h = useBrowser();
 
@@ -67,5 +67,60 @@ describe('sign-in form', () => {
     expect(new URL(page.url()).pathname).toBe('/signin');
     expect(pathOf(page)).toContain('vehicles');
     expect((await page.request.get(`${baseUrl()}/api/me`)).status()).toBe(401);
+  });
+});
+
+describe('pages that are not there, or not for the role', () => {
+  // Leave the previous page first: an island of it still loading would be sent to /signin (401) when the cookies
+  // change under it, aborting the next navigation.
+  beforeEach(async () => {
+    await h.page.goto('about:blank');
+  });
+  it('an unknown address answers 404 "Not Found" with Seepline\'s page in the signed-in shell and a way back', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'technician');
+    h.guard.expectFailure(/\/no-such-page$/, 404);
+    const res = await page.goto(`${baseUrl()}/no-such-page`);
+    expect([res!.status(), res!.statusText()]).toEqual([404, 'Not Found']);
+    await page.getByRole('heading', { level: 1, name: 'There is no page here' }).waitFor();
+    expect(await page.getByText('/no-such-page').count()).toBeGreaterThan(0);
+    // The navigation stays, and the way back leads to the Overview.
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').count()).toBe(EXPECTED.technician.nav.length);
+    await page.getByRole('link', { name: 'Go to the Overview' }).click();
+    await page.waitForURL(`${baseUrl()}/`);
+  });
+
+  it('a technician following a pattern link gets "not for your role" (403 "Forbidden") at that address, not the Overview', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'technician');
+    h.guard.expectFailure(/\/patterns\/2$/, 403);
+    const res = await page.goto(`${baseUrl()}/patterns/2`);
+    expect([res!.status(), res!.statusText()]).toEqual([403, 'Forbidden']);
+    expect(pathOf(page)).toBe('/patterns/2');
+    await page.getByRole('heading', { level: 1, name: 'Patterns is not open to your role' }).waitFor();
+    expect(await page.getByText('depot supervisors, fleet managers and admins', { exact: false }).count()).toBe(1);
+    await page.getByRole('link', { name: 'Go to the Overview' }).waitFor();
+  });
+
+  it('a fleet manager opening Settings gets the same page (403), and an admin the Settings', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'manager');
+    h.guard.expectFailure(/\/settings$/, 403);
+    const res = await page.goto(`${baseUrl()}/settings`);
+    expect(res!.status()).toBe(403);
+    await page.getByRole('heading', { level: 1, name: 'Settings is not open to your role' }).waitFor();
+    await loginAs(h.context, 'admin');
+    const ok = await page.goto(`${baseUrl()}/settings`);
+    expect([ok!.status(), ok!.statusText()]).toEqual([200, 'OK']);
+    await page.getByRole('heading', { level: 1, name: 'Settings' }).waitFor();
+  });
+
+  it('a record that is not there answers 404 "Not Found" too (not "OK")', async () => {
+    const page = h.page;
+    await loginAs(h.context, 'supervisor');
+    h.guard.expectFailure(/\/vehicles\/SB7LS4DE4ND530116$/, 404);
+    const res = await page.goto(`${baseUrl()}/vehicles/SB7LS4DE4ND530116`);
+    expect([res!.status(), res!.statusText()]).toEqual([404, 'Not Found']);
+    await page.getByRole('heading', { level: 1, name: 'Vehicle not found' }).waitFor();
   });
 });

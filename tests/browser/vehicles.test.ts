@@ -221,3 +221,76 @@ describe('Vehicles as the GHQ depot supervisor', () => {
     await page.getByRole('heading', { level: 1, name: 'Vehicle not found' }).waitFor();
   });
 });
+
+describe('off road: how long, why, and going back into service', () => {
+  beforeAll(async () => loginAs(h.context, 'supervisor'));
+
+  /** A GHQ vehicle off road with an open window-lifter defect that lacks the release verification. */
+  function unverifiedOffRoad(): { vin: string; fleet: string; ref: string } {
+    return db
+      .prepare(
+        `select v.vin, v.fleet_number as fleet, x.ref from vehicles v join depots d on d.id = v.depot_id
+           join defects x on x.vehicle_id = v.id join modules m on m.id = x.module_id
+          where d.code = 'GHQ' and v.off_road_since_at is not null and v.retired_date is null
+            and x.status in ('reported','diagnosing','awaiting_parts','repaired','verified')
+            and m.function = 'window_lifter' and x.verified_at is null
+          order by v.id limit 1`,
+      )
+      .get() as { vin: string; fleet: string; ref: string };
+  }
+
+  it('lists off-road vehicles with since when (in days) and the open defects keeping them off road', async () => {
+    const page = h.page;
+    const target = unverifiedOffRoad();
+    expect(target, 'the demo has such a vehicle').toBeTruthy();
+    const n = countVehicles("d.code = 'GHQ' and v.off_road_since_at is not null and v.retired_date is null");
+    await open(page, '/vehicles?status=off_road&sort=offRoadSince');
+    await waitForRows(page, Math.min(50, n));
+    const row = bodyRows(table(page)).filter({ hasText: target.fleet });
+    await expect.poll(async () => row.textContent()).toMatch(/since \d{2} \w{3,4} \d{4} · \d+ d/);
+    await row.getByRole('link', { name: new RegExp(`${target.ref}.*needs the release verification`) }).waitFor();
+  });
+
+  it('asks for a reason and a confirmation before returning a vehicle with an unverified window-lifter defect, then shows it in the history', async () => {
+    const page = h.page;
+    const target = unverifiedOffRoad();
+    await open(page, `/vehicles/${target.vin}`);
+    expect(await page.getByTestId('vehicle-status').textContent()).toBe('Off road');
+    await page.getByTestId('off-road-since').waitFor();
+    await page.getByRole('button', { name: 'Return to service…' }).click();
+    const dialog = page.getByRole('dialog', { name: `Return ${target.fleet} to service?` });
+    await dialog.getByRole('alert').filter({ hasText: 'still needs the release verification' }).waitFor();
+    expect(await dialog.getByRole('link', { name: target.ref }).count()).toBe(1);
+    const confirm = dialog.getByRole('button', { name: 'Return to service', exact: true });
+    // Nothing happens on one tap: the reason and the confirmation come first.
+    expect(await confirm.isDisabled()).toBe(true);
+    await dialog.getByLabel(/Why it can go back into service/).fill('Needed for the Saturday round; FR window secured shut');
+    expect(await confirm.isDisabled()).toBe(true);
+    await dialog.getByRole('checkbox', { name: new RegExp(`${target.ref} not verified`) }).check();
+    await confirm.click();
+    await expect.poll(async () => page.getByTestId('vehicle-status').textContent()).toBe('In service');
+    const history = page.getByRole('table', { name: `Off-road history of ${target.fleet}` });
+    await history.getByText('Needed for the Saturday round; FR window secured shut').waitFor();
+    await history.getByText(`Released with ${target.ref} not verified`).waitFor();
+    const audit = db.prepare("select field, new_value as v from audit_log where entity = 'vehicle' and entity_id = ? and field in ('offRoadReturnReason', 'releasedWithUnverified') order by id").all(target.vin);
+    expect(audit).toEqual([
+      { field: 'offRoadReturnReason', v: 'Needed for the Saturday round; FR window secured shut' },
+      { field: 'releasedWithUnverified', v: target.ref },
+    ]);
+  });
+
+  it('finds a vehicle by its registration typed without dashes or spaces', async () => {
+    const page = h.page;
+    const { reg, fleet } = db
+      .prepare("select v.registration as reg, v.fleet_number as fleet from vehicles v join depots d on d.id = v.depot_id where d.code = 'GHQ' and v.registration like '%-%' order by v.id limit 1")
+      .get() as { reg: string; fleet: string };
+    const typed = reg.replace(/[-\s]/g, '');
+    expect(typed).not.toBe(reg);
+    await open(page, '/vehicles');
+    await waitForRows(page, 50);
+    await page.getByRole('search', { name: 'Filter vehicles' }).getByRole('searchbox', { name: 'Search' }).fill(typed.toLowerCase());
+    await page.getByText('1 vehicle matches these filters').waitFor();
+    expect(await fleetNumbers(page)).toEqual([fleet]);
+  });
+});
+

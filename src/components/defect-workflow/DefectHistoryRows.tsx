@@ -5,7 +5,7 @@
  */
 import { MOISTURE_LABELS, POSITION_LABELS, ROOT_CAUSE_LABELS, STATUS_BADGE, STATUS_LABELS } from '@/components/labels';
 import { MOISTURE_BADGE } from '@/components/defects/badges';
-import { formatInstantDate } from '@/components/defects/format';
+import { formatDepotDate, formatDepotInstant } from '@/components/defects/format';
 import type { DefectRow } from '@/components/defects/queries';
 
 /** The row fields the table shows. */
@@ -54,7 +54,7 @@ export function DefectHistoryRows({ items, caption, showDoor = true, currentId, 
         </thead>
         <tbody>
           {items.map((d) => (
-            <tr key={d.id} className={d.id === currentId ? 'bg-estuary-50' : undefined}>
+            <tr key={d.id} className={d.id === currentId ? 'bg-estuary-50' : undefined} data-row-href={d.id === currentId ? undefined : `/defects/${d.id}`}>
               <td className="whitespace-nowrap">
                 {d.id === currentId ? (
                   <span className="mono font-semibold" aria-current="true">
@@ -70,10 +70,10 @@ export function DefectHistoryRows({ items, caption, showDoor = true, currentId, 
                     Repeat
                   </a>
                 )}
-                <div className="text-xs text-ink-500 lg:hidden">{formatInstantDate(d.reportedAt, timeZone)}</div>
+                <div className="text-xs text-ink-500 lg:hidden" title={`Reported ${formatDepotInstant(d.reportedAt, timeZone)}`}>{formatDepotDate(d.reportedAt, timeZone)}</div>
                 {d.id === currentId && <div className="text-xs text-ink-500">this defect</div>}
               </td>
-              <td className="hidden whitespace-nowrap lg:table-cell">{formatInstantDate(d.reportedAt, timeZone)}</td>
+              <td className="hidden whitespace-nowrap lg:table-cell" title={`Reported ${formatDepotInstant(d.reportedAt, timeZone)}`}>{formatDepotDate(d.reportedAt, timeZone)}</td>
               {showDoor && (
                 <td className="whitespace-nowrap">
                   <abbr className="no-underline" title={POSITION_LABELS[d.position]}>

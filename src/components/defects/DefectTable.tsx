@@ -11,12 +11,14 @@ import { DataTable } from '@/components/ui/DataTable';
 import { MOISTURE_LABELS, POSITION_LABELS, STATUS_LABELS } from '@/components/labels';
 import { useDepotOptions } from '@/components/vehicles/queries';
 import { ChipGroup, PageSizeSelect, SearchBox, SelectField, Toggle, pageOf, pageSizeOf, splitList } from './FilterControls';
-import { DEFECT_NARROW_MAX_PX, DEFECT_WIDE_MIN_PX, defectColumns, defectColumnsCompact, defectColumnsNarrow } from './columns';
+import { DEFECT_NARROW_MAX_PX, DEFECT_WIDE_MIN_PX, defectColumns, defectColumnsCompact, defectColumnsNarrow, defectRowHref } from './columns';
 import { formatCount } from './format';
 import {
   AGE_OPTIONS,
   activeFilterCount,
   clearFiltersPatch,
+  CLOSED_STATUSES,
+  dateRangeProblem,
   DEFAULT_DEFECT_SORT,
   defectExportHref,
   defectTab,
@@ -49,7 +51,9 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
   const pageSize = pageSizeOf(state.pageSize);
   const sort = state.sort || DEFAULT_DEFECT_SORT;
   const params = useMemo(() => pickDefectState({ ...state, page: String(page), pageSize: String(pageSize), sort }), [state, page, pageSize, sort]);
-  const list = useDefects(params);
+  // An impossible date range is caught here, in the screen's words, and nothing is asked of the server.
+  const dateProblem = dateRangeProblem(state);
+  const list = useDefects(params, dateProblem === null);
   const depots = useDepotOptions();
   const modules = useModuleOptions();
   const [boxRef, width] = useContainerWidth<HTMLDivElement>();
@@ -69,6 +73,14 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
   const tab = defectTab(state);
   const narrowed = filterCount > 0 || tab === 'mine';
   const total = list.data?.total ?? 0;
+  const countLine = dateProblem
+    ? 'No list for this date range.'
+    : list.error
+      ? 'The list could not be loaded.'
+      : list.data
+        ? `${formatCount(total)} ${total === 1 ? 'defect' : 'defects'}${narrowed ? (total === 1 ? ' matches this view' : ' match this view') : ' in your depots'}`
+        : 'Loading defects…';
+  const canDownload = !!list.data && total > 0 && !dateProblem && !list.error && !list.isPlaceholderData;
   const depotOptions = (depots.data ?? []).map((d) => ({ value: d.code, label: `${d.code} · ${d.name}` }));
   const moduleOptions = (modules.data ?? []).map((m) => ({ value: m.code, label: `${m.code} · ${m.name}` }));
   // A value from a shared link that the pickers do not offer (e.g. two depots) still shows, so it can be cleared.
@@ -87,19 +99,27 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
         <div>
           <h1>Defects</h1>
           <p className="text-sm text-ink-500" aria-live="polite" data-testid="defect-count">
-            {list.data
-              ? `${formatCount(total)} ${total === 1 ? 'defect' : 'defects'}${narrowed ? (total === 1 ? ' matches this view' : ' match this view') : ' in your depots'}`
-              : 'Loading defects…'}
+            {countLine}
           </p>
         </div>
         <div className="flex flex-wrap items-center gap-3">
           <PageSizeSelect value={pageSize} onChange={(n) => update({ pageSize: String(n) })} />
           <a
-            className={`btn-secondary${!list.data || total === 0 ? ' pointer-events-none opacity-50' : ''}`}
+            className={`btn-secondary${canDownload ? '' : ' pointer-events-none opacity-50'}`}
             href={defectExportHref(params)}
             download
-            aria-disabled={!list.data || total === 0}
-            title="Every defect of this view (all pages), in the defects import format"
+            aria-disabled={!canDownload}
+            tabIndex={canDownload ? undefined : -1}
+            onClick={(e) => {
+              if (!canDownload) e.preventDefault();
+            }}
+            title={
+              canDownload
+                ? 'Every defect of this view (all pages): the defects import columns, then status, depot, findings, parts, labour and cost'
+                : dateProblem
+                  ? 'Fix the date range first'
+                  : 'Nothing to download in this view'
+            }
           >
             <Download size={16} aria-hidden="true" /> Download CSV
           </a>
@@ -153,11 +173,22 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
             className="min-w-[11rem] flex-[1_1_12rem]"
           />
           <SelectField label="Age" value={state.olderThanDays ?? ''} onChange={set('olderThanDays')} options={ageOptions} anyLabel="Any age" className="min-w-[10rem] flex-[1_1_10rem]" />
-          <DateField label="Reported from" value={state.reportedFrom ?? ''} onChange={set('reportedFrom')} max={state.reportedTo} />
-          <DateField label="Reported to" value={state.reportedTo ?? ''} onChange={set('reportedTo')} min={state.reportedFrom} />
+          <DateField label="Reported from" value={state.reportedFrom ?? ''} onChange={set('reportedFrom')} max={state.reportedTo} invalid={!!dateProblem} />
+          <DateField label="Reported to" value={state.reportedTo ?? ''} onChange={set('reportedTo')} min={state.reportedFrom} invalid={!!dateProblem} />
         </div>
+        {dateProblem && (
+          <p id="df-date-problem" role="alert" className="text-sm font-semibold text-brick-700">
+            {dateProblem}
+          </p>
+        )}
         <div className="flex flex-wrap items-center gap-2">
-          <Toggle label="Open only" checked={state.open === '1'} onChange={flag('open')} />
+          <Toggle
+            label="Open only"
+            checked={state.open === '1'}
+            onChange={flag('open')}
+            disabled={tab === 'mine'}
+            title={tab === 'mine' ? '"My open defects" shows open defects only; choose "All defects" to see closed ones' : undefined}
+          />
           <Toggle label="Repeats only" checked={state.repeat === '1'} onChange={flag('repeat')} />
           <button type="button" className="btn-ghost" aria-expanded={moreOpen} aria-controls="defect-more-filters" onClick={() => setMoreOpen((o) => !o)}>
             {moreOpen ? <ChevronUp size={16} aria-hidden="true" /> : <ChevronDown size={16} aria-hidden="true" />}
@@ -185,7 +216,14 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
         </div>
         {moreOpen && (
           <div id="defect-more-filters" className="flex flex-wrap gap-x-6 gap-y-3 border-t border-ink-100 pt-3">
-            <ChipGroup label="Status" value={state.status ?? ''} onChange={set('status')} options={STATUS_OPTIONS} />
+            <ChipGroup
+              label="Status"
+              value={state.status ?? ''}
+              onChange={set('status')}
+              options={STATUS_OPTIONS}
+              disabled={tab === 'mine' ? CLOSED_STATUSES : undefined}
+              disabledTitle={'"My open defects" shows open defects only'}
+            />
             <ChipGroup label="Door" value={state.position ?? ''} onChange={set('position')} options={POSITION_OPTIONS} />
             <ChipGroup label="Moisture found" value={state.moisture ?? ''} onChange={set('moisture')} options={MOISTURE_OPTIONS} />
           </div>
@@ -195,29 +233,54 @@ function DefectList({ initialParams, showMine, myOpenByDefault, canReport }: Pro
       <DataTable
         caption="Defects"
         columns={columns}
-        data={list.data?.items ?? []}
-        total={total}
+        data={dateProblem ? [] : (list.data?.items ?? [])}
+        total={dateProblem ? 0 : total}
         page={page}
         pageSize={pageSize}
         sort={sort}
         onSort={(s) => update({ sort: s })}
         onPage={(p) => update({ page: String(p) }, { resetPage: false })}
-        loading={list.isPending || list.isPlaceholderData}
-        error={list.error ? list.error.message : null}
-        emptyText={tab === 'mine' && filterCount <= 1 ? 'Nothing open is assigned to you or reported by you.' : narrowed ? 'No defects match this view.' : 'No defects recorded in your depots yet.'}
+        loading={!dateProblem && (list.isPending || list.isPlaceholderData)}
+        error={dateProblem ?? (list.error ? `The list could not be loaded: ${list.error.message}` : null)}
+        emptyText={tab === 'mine' && filterCount === 0 ? 'Nothing open is assigned to you or reported by you.' : narrowed ? 'No defects match this view.' : 'No defects recorded in your depots yet.'}
+        rowHref={defectRowHref}
       />
     </div>
   );
 }
 
-function DateField({ label, value, onChange, min, max }: { label: string; value: string; onChange: (v: string) => void; min?: string; max?: string }) {
+function DateField({
+  label,
+  value,
+  onChange,
+  min,
+  max,
+  invalid = false,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  min?: string;
+  max?: string;
+  invalid?: boolean;
+}) {
   const id = `df-${label.replace(/\s+/g, '-').toLowerCase()}`;
   return (
     <div className="w-[9.75rem] flex-none">
       <label htmlFor={id} className="field-label">
         {label}
       </label>
-      <input id={id} type="date" className="input" value={value} min={min} max={max} onChange={(e) => onChange(e.target.value)} />
+      <input
+        id={id}
+        type="date"
+        className={`input${invalid ? ' border-brick-600 ring-1 ring-brick-600' : ''}`}
+        value={value}
+        min={min}
+        max={max}
+        aria-invalid={invalid || undefined}
+        aria-describedby={invalid ? 'df-date-problem' : undefined}
+        onChange={(e) => onChange(e.target.value)}
+      />
     </div>
   );
 }

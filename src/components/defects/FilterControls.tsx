@@ -113,13 +113,19 @@ export function ChipGroup({
   value,
   onChange,
   options,
+  disabled,
+  disabledTitle,
 }: {
   label: string;
   value: string;
   onChange: (v: string) => void;
   options: { value: string; label: string; title?: string }[];
+  /** Values offered but not selectable in this view (shown greyed, with `disabledTitle`). */
+  disabled?: readonly string[];
+  disabledTitle?: string;
 }) {
   const selected = new Set(splitList(value));
+  const off = new Set(disabled ?? []);
   const toggle = (v: string) => {
     const next = new Set(selected);
     if (next.has(v)) next.delete(v);
@@ -143,10 +149,11 @@ export function ChipGroup({
               key={o.value}
               type="button"
               aria-pressed={on}
-              title={o.title}
+              title={off.has(o.value) ? disabledTitle : o.title}
+              disabled={off.has(o.value)}
               onClick={() => toggle(o.value)}
               className={[
-                'min-h-10 rounded-md border px-3 text-sm font-semibold transition-colors',
+                'min-h-10 rounded-md border px-3 text-sm font-semibold transition-colors disabled:cursor-not-allowed disabled:opacity-40',
                 on ? 'border-estuary-600 bg-estuary-700 text-white' : 'border-ink-300 bg-white text-ink-700 hover:bg-ink-100',
               ].join(' ')}
             >
@@ -159,11 +166,26 @@ export function ChipGroup({
   );
 }
 
-/** A checkbox with a 40 px tap area. */
-export function Toggle({ label, checked, onChange }: { label: string; checked: boolean; onChange: (v: boolean) => void }) {
+/** A checkbox with a 40 px tap area (`disabled` with a `title` saying why). */
+export function Toggle({
+  label,
+  checked,
+  onChange,
+  disabled = false,
+  title,
+}: {
+  label: string;
+  checked: boolean;
+  onChange: (v: boolean) => void;
+  disabled?: boolean;
+  title?: string;
+}) {
   return (
-    <label className="inline-flex min-h-10 cursor-pointer items-center gap-2 rounded-md border border-ink-300 bg-white px-3 text-sm font-semibold text-ink-700 select-none hover:bg-ink-100">
-      <input type="checkbox" className="h-4 w-4 accent-estuary-700" checked={checked} onChange={(e) => onChange(e.target.checked)} />
+    <label
+      title={title}
+      className={`inline-flex min-h-10 items-center gap-2 rounded-md border border-ink-300 bg-white px-3 text-sm font-semibold text-ink-700 select-none ${disabled ? 'cursor-not-allowed opacity-60' : 'cursor-pointer hover:bg-ink-100'}`}
+    >
+      <input type="checkbox" className="h-4 w-4 accent-estuary-700" checked={checked} disabled={disabled} onChange={(e) => onChange(e.target.checked)} />
       {label}
     </label>
   );

@@ -2,10 +2,17 @@
 import type { ColumnDef } from '@tanstack/react-table';
 import { MOISTURE_LABELS, POSITION_LABELS, STATUS_BADGE, STATUS_LABELS } from '@/components/labels';
 import { MOISTURE_BADGE } from './badges';
-import { formatInstantDate } from './format';
+import { formatDepotDate, formatDepotInstant } from './format';
 import type { DefectRow } from './queries';
 
 const defectHref = (id: number) => `/defects/${id}`;
+/** The page a defect row opens when tapped anywhere (DataTable `rowHref`). */
+export const defectRowHref = (d: DefectRow) => defectHref(d.id);
+
+/** The day a defect was reported, in its depot's zone, with the time and zone in a tooltip. */
+function ReportedDate({ d }: { d: DefectRow }) {
+  return <span title={`Reported ${formatDepotInstant(d.reportedAt, d.depotTimeZone)}`}>{formatDepotDate(d.reportedAt, d.depotTimeZone)}</span>;
+}
 const vehicleHref = (vin: string) => `/vehicles/${encodeURIComponent(vin)}`;
 
 /** Up to two fault codes, then "+n". */
@@ -80,7 +87,7 @@ const reported: ColumnDef<DefectRow> = {
   id: 'reportedAt',
   header: 'Reported',
   meta: { sortField: 'reportedAt', className: 'whitespace-nowrap' },
-  cell: ({ row }) => formatInstantDate(row.original.reportedAt),
+  cell: ({ row }) => <ReportedDate d={row.original} />,
 };
 
 const vehicle: ColumnDef<DefectRow> = {
@@ -194,8 +201,15 @@ const defectCell = (withStatus: boolean): ColumnDef<DefectRow> => ({
       <a className="link mono" href={defectHref(row.original.id)}>
         {row.original.ref}
       </a>
-      <div className="text-xs text-ink-500">{formatInstantDate(row.original.reportedAt)}</div>
+      <div className="text-xs text-ink-500">
+        <ReportedDate d={row.original} />
+      </div>
       {withStatus && <div className="mt-1">{statusBadge(row.original.status)}</div>}
+      {row.original.repeat && (
+        <div className="mt-1">
+          <RepeatBadge d={row.original} withRef />
+        </div>
+      )}
     </div>
   ),
 });
@@ -235,20 +249,8 @@ const doorModule: ColumnDef<DefectRow> = {
   ),
 };
 
-const findings: ColumnDef<DefectRow> = {
-  id: 'findings',
-  header: 'Moisture',
-  meta: { sortField: 'moisture' },
-  cell: ({ row }) => (
-    <div className="flex flex-col items-start gap-1">
-      <MoistureBadge value={row.original.moisture} />
-      <RepeatBadge d={row.original} />
-    </div>
-  ),
-};
-
-/** Narrower screens: ref with its date, vehicle with its depot, door with its module, moisture with the repeat mark. */
-export const defectColumnsCompact: ColumnDef<DefectRow>[] = [defectCell(false), vehicleDepot, doorModule, symptom('max-w-[13rem]'), codes, findings, status];
+/** Narrower screens: ref with its date and its repeat mark ("Repeat of DF-…"), vehicle with its depot, door with its module. */
+export const defectColumnsCompact: ColumnDef<DefectRow>[] = [defectCell(false), vehicleDepot, doorModule, symptom('max-w-[13rem]'), codes, moisture, status];
 
 /** Tablet portrait: as compact, with the status under the ref and the codes under the symptom. */
 export const defectColumnsNarrow: ColumnDef<DefectRow>[] = [
@@ -271,7 +273,7 @@ export const defectColumnsNarrow: ColumnDef<DefectRow>[] = [
       </div>
     ),
   },
-  findings,
+  moisture,
 ];
 
 /** Container width (px) from which the one-field-per-column layout fits. */

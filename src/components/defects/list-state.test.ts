@@ -6,7 +6,9 @@ import {
   defectExportHref,
   defectStateToSearch,
   defectTab,
+  dateRangeProblem,
   initialDefectState,
+  normaliseDefectState,
   pickDefectState,
   searchToDefectState,
   tabPatch,
@@ -81,9 +83,43 @@ describe('activeFilterCount / clearFiltersPatch', () => {
     expect(activeFilterCount({ mine: '1', sort: 'ref', page: '2', pageSize: '100' })).toBe(0);
     expect(activeFilterCount({ status: 'reported,diagnosing', position: 'FL', repeat: '1', olderThanDays: '30' })).toBe(5);
   });
-  it('clears every filter but keeps the tab, sort and page size', () => {
+  it('clears every filter but keeps the tab (with its own "open only"), sort and page size', () => {
     const s = { mine: '1', open: '1', depot: 'GHQ', q: 'x', vin: 'V', sort: 'ref', pageSize: '100', page: '2' };
-    expect(applyDefectPatch(s, clearFiltersPatch())).toEqual({ mine: '1', sort: 'ref', pageSize: '100' });
+    expect(applyDefectPatch(s, clearFiltersPatch())).toEqual({ mine: '1', open: '1', sort: 'ref', pageSize: '100' });
+    expect(applyDefectPatch({ mine: '0', open: '1', q: 'x' }, clearFiltersPatch())).toEqual({ mine: '0' });
+  });
+  it('does not count "open" as a filter on the "My open defects" tab', () => {
+    expect(activeFilterCount({ mine: '1', open: '1' })).toBe(0);
+    expect(activeFilterCount({ mine: '1', open: '1', depot: 'GHQ' })).toBe(1);
+    expect(activeFilterCount({ open: '1' })).toBe(1);
+  });
+});
+
+describe('"My open defects" keeps its own constraint', () => {
+  it('never shows closed or cancelled defects under the tab, whatever the patch', () => {
+    expect(applyDefectPatch({ mine: '1', open: '1' }, { open: undefined })).toEqual({ mine: '1', open: '1' });
+    expect(applyDefectPatch({ mine: '1', open: '1' }, { status: 'closed,cancelled' })).toEqual({ mine: '1', open: '1' });
+    expect(applyDefectPatch({ mine: '1', open: '1' }, { status: 'diagnosing,closed' })).toEqual({ mine: '1', open: '1', status: 'diagnosing' });
+    expect(defectTab(applyDefectPatch({ mine: '1', open: '1' }, clearFiltersPatch()))).toBe('mine');
+  });
+  it('normalises a shared link and Back/Forward to the tab\'s view', () => {
+    expect(initialDefectState({ mine: '1' }, false)).toEqual({ mine: '1', open: '1' });
+    expect(initialDefectState({ mine: 'true', status: 'cancelled' }, true)).toEqual({ mine: '1', open: '1' });
+    expect(searchToDefectState('?mine=1&open=0')).toEqual({ mine: '1', open: '1' });
+  });
+  it('leaves "All defects" alone', () => {
+    expect(normaliseDefectState({ mine: '0', status: 'closed' })).toEqual({ mine: '0', status: 'closed' });
+    expect(normaliseDefectState({ open: '0' })).toEqual({ open: '0' });
+  });
+});
+
+describe('dateRangeProblem', () => {
+  it('flags a "from" after the "to" and accepts the rest', () => {
+    expect(dateRangeProblem({ reportedFrom: '2026-11-30', reportedTo: '2026-11-01' })).toBe('"Reported from" is after "Reported to". Change one of the dates to see the list.');
+    expect(dateRangeProblem({ reportedFrom: '2026-11-01', reportedTo: '2026-11-01' })).toBeNull();
+    expect(dateRangeProblem({ reportedFrom: '2026-11-01', reportedTo: '2026-11-30' })).toBeNull();
+    expect(dateRangeProblem({ reportedFrom: '2026-11-30' })).toBeNull();
+    expect(dateRangeProblem({})).toBeNull();
   });
 });
 

@@ -4,6 +4,7 @@
  * tab, clearing filters, and the CSV export link of the current view. No React, no window: unit-tested.
  */
 import { DEFECT_AGE_DAYS } from '@/lib/contracts/lists';
+import { OPEN_STATUSES } from '@/lib/contracts/overview';
 
 /** The list's URL parameters, in the order they are written. */
 export const DEFECT_PARAM_KEYS = [
@@ -62,7 +63,40 @@ export function pickDefectState(params: Record<string, string | undefined>): Def
 export function searchToDefectState(search: string): DefectListState {
   const raw: Record<string, string> = {};
   for (const [k, v] of new URLSearchParams(search)) if (KEY_SET.has(k)) raw[k] = v;
-  return pickDefectState(raw);
+  return normaliseDefectState(pickDefectState(raw));
+}
+
+const OPEN_SET = new Set<string>(OPEN_STATUSES);
+const isMine = (state: DefectListState) => state.mine === '1' || state.mine === 'true';
+
+/**
+ * "My open defects" keeps its own constraint: with `mine` on, the view is always open defects only (`open=1`), and
+ * a status filter keeps only open statuses. So no filter change, "Clear filters" or shared link can show closed or
+ * cancelled defects under that tab.
+ */
+export function normaliseDefectState(state: DefectListState): DefectListState {
+  if (!isMine(state)) return state;
+  const next: DefectListState = { ...state, mine: '1', open: '1' };
+  if (state.status) {
+    const open = state.status.split(',').filter((s) => OPEN_SET.has(s));
+    if (open.length) next.status = open.join(',');
+    else delete next.status;
+  }
+  return pickDefectState(next);
+}
+
+/** Statuses the "My open defects" tab cannot show (offered disabled in the status filter). */
+export const CLOSED_STATUSES = ['closed', 'cancelled'] as const;
+
+/**
+ * The problem with the reported-date range, in the screen's words, or null: a "from" after the "to" would match
+ * nothing (the API refuses it), so the list asks for a change instead of loading.
+ */
+export function dateRangeProblem(state: DefectListState): string | null {
+  const from = state.reportedFrom;
+  const to = state.reportedTo;
+  if (!from || !to || !/^\d{4}-\d{2}-\d{2}$/.test(from) || !/^\d{4}-\d{2}-\d{2}$/.test(to)) return null;
+  return from > to ? '"Reported from" is after "Reported to". Change one of the dates to see the list.' : null;
 }
 
 /** The query string of a state (with a leading `?`, or '' when empty), keys in canonical order. */
@@ -80,7 +114,7 @@ export function defectStateToSearch(state: DefectListState): string {
 export function initialDefectState(params: Record<string, string | undefined>, myOpenByDefault: boolean): DefectListState {
   const state = pickDefectState(params);
   if (myOpenByDefault && Object.keys(state).length === 0) return { mine: '1', open: '1' };
-  return state;
+  return normaliseDefectState(state);
 }
 
 /** Which tab a state shows. */
@@ -101,12 +135,14 @@ export function clearFiltersPatch(): Record<string, undefined> {
   return Object.fromEntries(DEFECT_FILTER_KEYS.map((k) => [k, undefined]));
 }
 
-/** How many filters narrow the view (a multi-value filter counts once per value). */
+/** How many filters narrow the view (a multi-value filter counts once per value; "open" is part of the "mine" tab). */
 export function activeFilterCount(state: DefectListState): number {
   let n = 0;
+  const mine = isMine(state);
   for (const k of DEFECT_FILTER_KEYS) {
     const v = state[k];
     if (!v) continue;
+    if (k === 'open' && mine) continue;
     if (k === 'status' || k === 'position' || k === 'moisture' || k === 'module' || k === 'depot') n += v.split(',').filter(Boolean).length;
     else if ((k === 'open' || k === 'repeat') && (v === '0' || v === 'false')) n += 1;
     else n += 1;
@@ -122,7 +158,7 @@ export function applyDefectPatch(state: DefectListState, patch: Record<string, s
     next[k] = v === undefined || v.trim() === '' ? undefined : v;
   }
   if (resetPage && !('page' in patch)) delete next.page;
-  return pickDefectState(next);
+  return normaliseDefectState(pickDefectState(next));
 }
 
 /** Link of the CSV download of a view: the same filters and sort, without paging. */

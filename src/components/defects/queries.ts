@@ -39,6 +39,8 @@ export type DefectRow = {
   repeatOfId: number | null;
   repeatOfRef: string | null;
   version: number;
+  /** The depot's IANA time zone (dates are shown in it); absent from other defect JSON. */
+  depotTimeZone?: string | null;
 };
 
 /** A module type as the filter needs it. */
@@ -56,9 +58,9 @@ export function defectsQueryOptions(params: DefectListParams) {
   });
 }
 
-/** One page of defects; the previous page stays on screen while the next one loads. */
-export function useDefects(params: DefectListParams) {
-  return useQuery(defectsQueryOptions(params));
+/** One page of defects; the previous page stays on screen while the next one loads (`enabled` false: no request). */
+export function useDefects(params: DefectListParams, enabled = true) {
+  return useQuery({ ...defectsQueryOptions(params), enabled });
 }
 
 /** The module catalogue (for the filter). */

@@ -45,7 +45,7 @@ const DepotFormSchema = z.object({
   rainDaysPerYear: numberText('Rain days a year', 0, 366, { integer: true, required: true }),
   meanRhPct: numberText('Mean relative humidity', 0, 100, { required: true }),
   washBay: z.boolean(),
-  inspectionSlotsPerDay: numberText('Inspection slots a day', 0, 100, { integer: true }),
+  inspectionSlotsPerDay: numberText('Seal-inspection bay slots per day', 0, 100, { integer: true }),
   timezone: z
     .string()
     .trim()
@@ -185,9 +185,9 @@ export function DepotForm({ formId, depot, onSaved, onBusy }: Props) {
       </fieldset>
       <FormField
         id={id('inspectionSlotsPerDay')}
-        label="Inspection slots a day"
+        label="Seal-inspection bay slots per day"
         error={e.inspectionSlotsPerDay?.message}
-        hint="Bay slots for seal inspections; the planner never books more."
+        hint="How many vehicles the bay can take for a seal inspection in a day; recorded for reference (0–100)."
         className="sm:w-1/2 sm:pr-2"
       >
         <input

@@ -7,8 +7,10 @@ import { useUrlState } from '@/lib/client/url-state';
 import { can, type Role } from '@/lib/auth/permissions';
 import { DataTable } from '@/components/ui/DataTable';
 import { ConfirmDialog, Dialog } from '@/components/ui/Dialog';
+import { useContainerWidth } from '@/components/defects/use-container-width';
 import { DepotForm } from './DepotForm';
-import { depotColumns } from './columns';
+import { DEPOT_WIDE_MIN_PX, depotColumns } from './columns';
+import { depotDeleteBlocker } from './delete-blocker';
 import { useDeleteDepot, useDepots, type Depot } from './queries';
 
 type Props = { role: Role; initialParams?: Record<string, string> };
@@ -43,17 +45,19 @@ function Depots({ role, initialParams = {} }: Props) {
   const [busy, setBusy] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   const remove = useDeleteDepot();
-  const columns = useMemo(() => depotColumns({ canWrite, onEdit: setEditing, onDelete: setDeleting }), [canWrite]);
+  const [boxRef, width] = useContainerWidth<HTMLDivElement>();
+  const compact = width !== null && width < DEPOT_WIDE_MIN_PX;
+  const columns = useMemo(() => depotColumns({ canWrite, onEdit: setEditing, onDelete: setDeleting }, compact), [canWrite, compact]);
   const formId = 'depot-form';
   const total = data?.total ?? 0;
 
   return (
-    <div>
+    <div ref={boxRef}>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1>Depots</h1>
           <p className="text-sm text-ink-500">
-            {data ? `${total} depot${total === 1 ? '' : 's'}` : 'Depots'} · climate, washing and bay capacity feed moisture exposure and inspection planning
+            {data ? `${total} depot${total === 1 ? '' : 's'}` : 'Depots'} · climate and washing feed each vehicle's moisture exposure
           </p>
         </div>
         {canWrite && (
@@ -144,6 +148,7 @@ function Depots({ role, initialParams = {} }: Props) {
             onClose={() => setDeleting(null)}
             title={`Delete depot ${deleting?.code ?? ''}?`}
             confirmLabel="Delete depot"
+            blockedReason={depotDeleteBlocker(deleting?.usage)}
             onConfirm={async () => {
               const code = deleting!.code;
               await remove.mutateAsync(code);
@@ -153,7 +158,6 @@ function Depots({ role, initialParams = {} }: Props) {
             <p>
               <strong>{deleting?.name}</strong> will be removed. A depot that still holds vehicles, defects or people cannot be deleted; move them first.
             </p>
-            {deleting && deleting.vehicles > 0 && <p className="text-ink-600">It has {deleting.vehicles.toLocaleString('en-GB')} vehicles in service.</p>}
           </ConfirmDialog>
         </>
       )}

@@ -16,6 +16,8 @@ export type Depot = {
   timezone: string | null;
   vehicles: number;
   openDefects: number;
+  /** Everything attached to the depot (sent to people who may delete depots). */
+  usage?: { vehicles: number; defects: number; people: number };
 };
 
 /** What the form sends (camelCase keys; the API also takes snake_case). */

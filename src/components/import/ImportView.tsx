@@ -355,7 +355,11 @@ function Outcome({ run, kind, fileName }: { run: Run; kind: ImportKind; fileName
           Nothing can be imported until they are fixed: correct them in the spreadsheet, save as CSV and check again.
           {r.errors.length >= 1000 && ' Only the first 1,000 are listed.'}
         </div>
-        <IssueTable issues={r.errors} tone="error" caption="Problems in the file" fileName={`${base}-problems.csv`} />
+        <p className="text-sm text-ink-600">
+          Rows are counted from the first row under the header, so <strong className="text-ink-800">row 1 is line 2</strong> of the sheet when the header
+          is on line 1; each problem gives both, and the row's {kind === 'defects' ? 'ref or VIN' : kind === 'vehicles' ? 'VIN' : 'code'}.
+        </p>
+        <IssueTable issues={r.errors} rows={r.issueRows} tone="error" caption="Problems in the file" fileName={`${base}-problems.csv`} />
         {r.warnings.length > 0 && <Warnings result={r} base={base} collapsed />}
       </section>
     );
@@ -379,7 +383,7 @@ function Outcome({ run, kind, fileName }: { run: Run; kind: ImportKind; fileName
 
 function Warnings({ result, base, collapsed = false }: { result: ImportResult; base: string; collapsed?: boolean }) {
   const note = 'These do not stop the import, but are worth a look (for example a VIN whose check digit does not match, outside North America).';
-  const table = <IssueTable issues={result.warnings} tone="warning" caption="Warnings" fileName={`${base}-warnings.csv`} />;
+  const table = <IssueTable issues={result.warnings} rows={result.issueRows} tone="warning" caption="Warnings" fileName={`${base}-warnings.csv`} />;
   if (collapsed) {
     return (
       <details className="group rounded-md border border-ink-200 px-3 py-1">

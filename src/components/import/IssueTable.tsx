@@ -1,6 +1,8 @@
 /**
  * Row errors or warnings of an import check: sortable by row, column or message, filterable by column and
- * text, paged when long, and downloadable as CSV to work through in the spreadsheet.
+ * text, paged when long, and downloadable as CSV to work through in the spreadsheet. Each row says both numbers a
+ * person needs: the file's data row (from 1, under the header: CONTRACT.md) and the line the spreadsheet shows,
+ * with the row's code, VIN or ref.
  */
 import { useMemo, useState } from 'react';
 import {
@@ -15,16 +17,41 @@ import {
 } from '@tanstack/react-table';
 import { Download } from 'lucide-react';
 import { downloadCsv, toCsv } from './formats';
-import type { RowIssue } from './upload';
+import type { IssueRow, RowIssue } from './upload';
 
 const PAGE_SIZE = 50;
+const NO_ROWS: IssueRow[] = [];
 
-const columns: ColumnDef<RowIssue>[] = [
+/** An issue with where its row sits in the sheet. */
+type Located = RowIssue & { line: number | null; record: string | null };
+
+/** "Row 2 (spreadsheet line 3)", or "Header (spreadsheet line 1)". */
+export function rowWords(i: Pick<Located, 'row' | 'line'>): string {
+  const what = i.row === 0 ? 'Header' : `Row ${i.row.toLocaleString('en-GB')}`;
+  return i.line === null ? what : `${what} (spreadsheet line ${i.line.toLocaleString('en-GB')})`;
+}
+
+const columns: ColumnDef<Located>[] = [
   {
     id: 'row',
     accessorKey: 'row',
     header: 'Row',
-    cell: ({ row }) => (row.original.row === 0 ? <span className="text-ink-600">Header</span> : row.original.row.toLocaleString('en-GB')),
+    cell: ({ row }) => {
+      const i = row.original;
+      return (
+        <div className="leading-tight" title={rowWords(i)}>
+          <div className="font-semibold text-ink-900">{i.row === 0 ? 'Header' : `Row ${i.row.toLocaleString('en-GB')}`}</div>
+          {i.line !== null && <div className="text-xs text-ink-500">line {i.line.toLocaleString('en-GB')} in the sheet</div>}
+        </div>
+      );
+    },
+  },
+  {
+    id: 'record',
+    accessorKey: 'record',
+    header: 'Record',
+    cell: ({ row }) => (row.original.record ? <span className="mono text-xs break-all text-ink-700">{row.original.record}</span> : <span className="text-ink-400">–</span>),
+    enableSorting: false,
   },
   {
     id: 'column',
@@ -36,10 +63,14 @@ const columns: ColumnDef<RowIssue>[] = [
   { id: 'message', accessorKey: 'message', header: 'Problem', enableSorting: true },
 ];
 
-type Props = { issues: RowIssue[]; tone: 'error' | 'warning'; caption: string; fileName: string };
+type Props = { issues: RowIssue[]; rows?: IssueRow[]; tone: 'error' | 'warning'; caption: string; fileName: string };
 
 /** A table of row issues. */
-export function IssueTable({ issues, tone, caption, fileName }: Props) {
+export function IssueTable({ issues: raw, rows = NO_ROWS, tone, caption, fileName }: Props) {
+  const issues = useMemo<Located[]>(() => {
+    const at = new Map(rows.map((r) => [r.row, r]));
+    return raw.map((i) => ({ ...i, line: at.get(i.row)?.line ?? null, record: at.get(i.row)?.record ?? null }));
+  }, [raw, rows]);
   const [sorting, setSorting] = useState<SortingState>([]);
   const [text, setText] = useState('');
   const [column, setColumn] = useState('');
@@ -57,7 +88,7 @@ export function IssueTable({ issues, tone, caption, fileName }: Props) {
       const v = value.trim().toLowerCase();
       if (!v) return true;
       const r = row.original;
-      return String(r.row) === v || r.column.toLowerCase().includes(v) || r.message.toLowerCase().includes(v);
+      return String(r.row) === v || String(r.line) === v || r.column.toLowerCase().includes(v) || r.message.toLowerCase().includes(v) || (r.record ?? '').toLowerCase().includes(v);
     },
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
@@ -78,7 +109,7 @@ export function IssueTable({ issues, tone, caption, fileName }: Props) {
           <>
             <label className="w-full max-w-xs">
               <span className="sr-only">Filter {caption.toLowerCase()}</span>
-              <input type="search" className="input" placeholder="Filter: row number or words" value={text} onChange={(e) => setText(e.target.value)} />
+              <input type="search" className="input" placeholder="Filter: row, line, VIN or words" value={text} onChange={(e) => setText(e.target.value)} />
             </label>
             <label className="flex items-center gap-2">
               <span className="text-sm font-semibold text-ink-700">Column</span>
@@ -96,7 +127,12 @@ export function IssueTable({ issues, tone, caption, fileName }: Props) {
         <button
           type="button"
           className="btn-ghost ml-auto"
-          onClick={() => downloadCsv(fileName, toCsv([['row', 'column', 'message'], ...issues.map((i) => [String(i.row), i.column, i.message])]))}
+          onClick={() =>
+            downloadCsv(
+              fileName,
+              toCsv([['row', 'spreadsheet_line', 'record', 'column', 'message'], ...issues.map((i) => [String(i.row), i.line === null ? '' : String(i.line), i.record ?? '', i.column, i.message])]),
+            )
+          }
         >
           <Download size={16} aria-hidden="true" /> Download as CSV
         </button>
@@ -114,19 +150,23 @@ export function IssueTable({ issues, tone, caption, fileName }: Props) {
                       <th
                         key={h.id}
                         scope="col"
-                        className={h.id === 'row' ? 'w-24' : h.id === 'column' ? 'w-48' : ''}
+                        className={h.id === 'row' ? 'w-28' : h.id === 'column' ? 'w-36' : h.id === 'record' ? 'w-40' : ''}
                         aria-sort={dir ? (dir === 'desc' ? 'descending' : 'ascending') : undefined}
                       >
-                        <button
-                          type="button"
-                          className="inline-flex min-h-8 items-center gap-1 uppercase hover:text-ink-900"
-                          onClick={h.column.getToggleSortingHandler()}
-                        >
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true" className={dir ? 'text-estuary-700' : 'text-ink-300'}>
-                            {dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}
-                          </span>
-                        </button>
+                        {h.column.getCanSort() ? (
+                          <button
+                            type="button"
+                            className="inline-flex min-h-10 items-center gap-1 uppercase hover:text-ink-900"
+                            onClick={h.column.getToggleSortingHandler()}
+                          >
+                            {flexRender(h.column.columnDef.header, h.getContext())}
+                            <span aria-hidden="true" className={dir ? 'text-estuary-700' : 'text-ink-300'}>
+                              {dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}
+                            </span>
+                          </button>
+                        ) : (
+                          flexRender(h.column.columnDef.header, h.getContext())
+                        )}
                       </th>
                     );
                   })}
@@ -145,7 +185,7 @@ export function IssueTable({ issues, tone, caption, fileName }: Props) {
               ))}
               {shown === 0 && (
                 <tr>
-                  <td colSpan={3} className="py-6 text-center text-ink-500">
+                  <td colSpan={4} className="py-6 text-center text-ink-500">
                     Nothing matches this filter.
                   </td>
                 </tr>

@@ -31,7 +31,7 @@ const EXAMPLE_VIN = 'SX8BV2DK0RA104257';
 export const IMPORT_FORMATS: Record<ImportKind, ImportFormat> = {
   depots: {
     label: 'Depots',
-    summary: 'Sites, their climate and washing, and how many inspection slots their bay has.',
+    summary: 'Sites, their climate and washing, and how many seal-inspection bay slots they have a day.',
     matchedBy: 'code',
     matchedShort: 'by code',
     needs: null,
@@ -43,7 +43,7 @@ export const IMPORT_FORMATS: Record<ImportKind, ImportFormat> = {
       req('rain_days_per_year', 'Whole number, 0–366.', '174'),
       req('mean_rh_pct', 'Mean relative humidity, 0–100.', '83'),
       req('wash_bay', 'Pressure washing on site: yes or no.', 'yes'),
-      opt('inspection_slots_per_day', 'Whole number of seal-inspection slots a day.', '2'),
+      opt('inspection_slots_per_day', 'Seal-inspection bay slots per day, a whole number (recorded for reference).', '2'),
       opt('timezone', 'IANA time zone, e.g. Europe/London.', 'Europe/London'),
     ],
   },

@@ -8,6 +8,9 @@ import type { ImportKind } from './formats';
 
 export type RowIssue = { row: number; column: string; message: string };
 
+/** Where a row named by an issue sits in the sheet (spreadsheet line) and which record it is (code, VIN or ref). */
+export type IssueRow = { row: number; line: number; record: string | null };
+
 export type ImportResult = {
   kind?: string;
   dryRun?: boolean;
@@ -17,6 +20,7 @@ export type ImportResult = {
   unchanged: number;
   errors: RowIssue[];
   warnings: RowIssue[];
+  issueRows: IssueRow[];
 };
 
 export type UploadPhase = { phase: 'uploading'; percent: number } | { phase: 'validating' };
@@ -49,7 +53,7 @@ export function uploadImport(
         body = null;
       }
       if (xhr.status === 200 && body) {
-        resolve({ ...(body as ImportResult), errors: body.errors ?? [], warnings: body.warnings ?? [] });
+        resolve({ ...(body as ImportResult), errors: body.errors ?? [], warnings: body.warnings ?? [], issueRows: body.issueRows ?? [] });
         return;
       }
       if (xhr.status === 401) {
@@ -61,7 +65,7 @@ export function uploadImport(
           body.errors ??
           (body.error?.issues ?? []).map((i) => ({ row: i.row ?? 0, column: i.column ?? i.path ?? '', message: body?.error?.message ?? i.message }));
         if (errors.length) {
-          resolve({ rows: body.rows ?? 0, inserted: 0, updated: 0, unchanged: 0, errors, warnings: body.warnings ?? [] });
+          resolve({ rows: body.rows ?? 0, inserted: 0, updated: 0, unchanged: 0, errors, warnings: body.warnings ?? [], issueRows: body.issueRows ?? [] });
           return;
         }
       }

@@ -8,8 +8,10 @@ import { can, type Role } from '@/lib/auth/permissions';
 import { FUNCTION_LABELS } from '@/components/labels';
 import { DataTable } from '@/components/ui/DataTable';
 import { ConfirmDialog, Dialog } from '@/components/ui/Dialog';
+import { useContainerWidth } from '@/components/defects/use-container-width';
+import { moduleDeleteBlocker } from '@/components/depots/delete-blocker';
 import { ModuleForm } from './ModuleForm';
-import { moduleColumns } from './columns';
+import { MODULE_WIDE_MIN_PX, moduleColumns } from './columns';
 import { MODULE_FUNCTIONS, useDeleteModule, useModules, type ModuleType } from './queries';
 
 type Props = { role: Role; initialParams?: Record<string, string> };
@@ -45,13 +47,15 @@ function Modules({ role, initialParams = {} }: Props) {
   const [busy, setBusy] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   const remove = useDeleteModule();
-  const columns = useMemo(() => moduleColumns({ canWrite, onEdit: setEditing, onDelete: setDeleting }), [canWrite]);
+  const [boxRef, width] = useContainerWidth<HTMLDivElement>();
+  const compact = width !== null && width < MODULE_WIDE_MIN_PX;
+  const columns = useMemo(() => moduleColumns({ canWrite, onEdit: setEditing, onDelete: setDeleting }, compact), [canWrite, compact]);
   const formId = 'module-form';
   const total = data?.total ?? 0;
   const filtered = Boolean(params.q || fn);
 
   return (
-    <div>
+    <div ref={boxRef}>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1>Modules</h1>
@@ -163,6 +167,7 @@ function Modules({ role, initialParams = {} }: Props) {
             onClose={() => setDeleting(null)}
             title={`Delete module type ${deleting?.code ?? ''}?`}
             confirmLabel="Delete module type"
+            blockedReason={moduleDeleteBlocker(deleting?.usage)}
             onConfirm={async () => {
               const code = deleting!.code;
               await remove.mutateAsync(code);

@@ -15,6 +15,8 @@ export type ModuleType = {
   supplier: string | null;
   defects: number;
   openDefects: number;
+  /** Defects in every depot (sent to people who may delete module types). */
+  usage?: { defects: number };
 };
 
 export type ModuleInput = { code: string; name: string; function: ModuleFunction; partNumber: string | null; supplier: string | null };

@@ -9,7 +9,8 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import { Plus } from 'lucide-react';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { STATUS_BADGE, STATUS_LABELS, POSITION_LABELS } from '@/components/labels';
-import { formatCalendarDate, formatInstantDate } from '@/components/defects/format';
+import { formatCalendarDate, formatDepotDate, formatDepotInstant, formatInstantDate, plural } from '@/components/defects/format';
+import { windowLabel } from '@/lib/overview/windows';
 import { OPEN_STATUSES, type OverviewDefect, type OverviewPatterns, type OverviewResponse } from '@/lib/contracts/overview';
 import { formatBuildRange } from '@/lib/patterns/records';
 import { formatCount, formatExpected, formatTimes } from '@/lib/patterns/explain';
@@ -84,7 +85,7 @@ function DefectShortList({ rows, caption, empty }: { rows: OverviewDefect[]; cap
         </thead>
         <tbody>
           {rows.map((d) => (
-            <tr key={d.id}>
+            <tr key={d.id} data-row-href={`/defects/${d.id}`}>
               <td className="whitespace-nowrap">
                 <a className="link mono" href={`/defects/${d.id}`}>
                   {d.ref}
@@ -111,7 +112,7 @@ function DefectShortList({ rows, caption, empty }: { rows: OverviewDefect[]; cap
               <td>
                 <span className={STATUS_BADGE[d.status] ?? 'badge-neutral'}>{STATUS_LABELS[d.status] ?? d.status}</span>
               </td>
-              <td className="text-right whitespace-nowrap tabular-nums" title={`Reported ${formatInstantDate(d.reportedAt)}`}>
+              <td className="text-right whitespace-nowrap tabular-nums" title={`Reported ${formatDepotInstant(d.reportedAt, d.depotTimeZone)}`}>
                 {d.ageDays} d
               </td>
             </tr>
@@ -218,7 +219,7 @@ function PatternsSection({ p, manages }: { p: OverviewPatterns; manages: boolean
 
 function CountLink({ n, href, label }: { n: number; href: string; label: string }) {
   return (
-    <a className="link tabular-nums" href={href} aria-label={label}>
+    <a className="link inline-flex min-h-10 min-w-10 items-center justify-end tabular-nums" href={href} aria-label={label}>
       {fmt(n)}
     </a>
   );
@@ -228,7 +229,12 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
   const o = useOverview(initial);
   const manages = o.role === 'manager' || o.role === 'admin';
   const since = o.windowFrom;
-  const asOf = formatInstantDate(o.asOf, 'UTC');
+  const asOf = formatDepotDate(o.asOf, 'UTC');
+  // The exact window of the repeat and module figures: whole calendar months, the last one still running.
+  const first = o.trend[0]?.month ?? since.slice(0, 7);
+  const last = o.trend[o.trend.length - 1];
+  const span = windowLabel(first, last?.month ?? first, false);
+  const windowText = windowLabel(first, last?.month ?? first, last?.partial ?? false);
 
   const mine = o.mine && (
     <Section
@@ -276,11 +282,17 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
           href={defectsHref({ open: true, olderThanDays: o.staleDays, sort: 'reportedAt' })}
           testId="kpi-stale"
         />
-        <Figure label="Vehicles off road" value={fmt(o.offRoad)} sub={`of ${fmt(o.vehiclesInService)} in service`} href="/vehicles?status=off_road" testId="kpi-offroad" />
         <Figure
-          label="Repeat rate, 12 months"
+          label="Vehicles off road"
+          value={fmt(o.offRoad)}
+          sub={`of ${fmt(o.vehiclesInService)} in service`}
+          href="/vehicles?status=off_road&sort=offRoadSince"
+          testId="kpi-offroad"
+        />
+        <Figure
+          label="Repeat rate"
           value={formatPct(o.window.rate)}
-          sub={`${fmt(o.window.repeats)} repeats of ${fmt(o.window.reported)} reported`}
+          sub={`${plural(o.window.repeats, 'repeat')} of ${fmt(o.window.reported)} reported · ${windowText}`}
           href={defectsHref({ repeat: true, reportedFrom: since })}
           testId="kpi-repeat"
         />
@@ -299,7 +311,7 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
               const pct = o.openTotal ? (n / o.openTotal) * 100 : 0;
               return (
                 <li key={s}>
-                  <a href={defectsHref({ status: s })} className="block rounded-md px-1 py-1 hover:bg-ink-50" aria-label={`${STATUS_LABELS[s]}: ${n} open`}>
+                  <a href={defectsHref({ status: s })} className="block rounded-md px-1 py-1 hover:bg-ink-50" aria-label={`${STATUS_LABELS[s]}: ${fmt(n)} open`}>
                     <div className="flex items-center justify-between text-sm">
                       <span className={STATUS_BADGE[s]}>{STATUS_LABELS[s]}</span>
                       <span className="font-semibold tabular-nums">{fmt(n)}</span>
@@ -316,25 +328,28 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
       </div>
 
       <div className="grid gap-5 lg:grid-cols-2">
-        <Section title="Repeat rate by month" sub={`Repeats: same vehicle, door and module function within ${o.repeatWindowDays} days of an earlier repair`}>
-          <RepeatTrendChart trend={o.trend} average={o.window.rate} />
+        <Section
+          title="Repeat rate by month"
+          sub={`${windowText} · repeats: same vehicle, door and module function within ${o.repeatWindowDays} days of an earlier repair`}
+        >
+          <RepeatTrendChart trend={o.trend} average={o.window.rate} span={span} />
         </Section>
-        <Section title="Module types with most defects" sub={`Reported since ${formatInstantDate(since + 'T00:00:00Z', 'UTC')}`}>
-          {o.modules.length ? <ModuleChart modules={o.modules} windowFrom={since} /> : <p className="text-sm text-ink-500">No defects reported in the last 12 months.</p>}
+        <Section title="Module types with most defects" sub={`Reported ${windowText}`}>
+          {o.modules.length ? <ModuleChart modules={o.modules} windowFrom={since} span={span} /> : <p className="text-sm text-ink-500">No defects reported {span}.</p>}
         </Section>
       </div>
 
       {manages && o.depots.length > 1 && (
-        <Section title="Depot comparison" sub="Repeat rate per depot over the last 12 months, against all depots together">
-          <DepotRepeatChart depots={o.depots} windowFrom={since} average={o.window.rate} />
+        <Section title="Depot comparison" sub={`Repeat rate per depot, ${windowText}, against all depots together`}>
+          <DepotRepeatChart depots={o.depots} windowFrom={since} average={o.window.rate} span={span} />
         </Section>
       )}
 
       <div className="grid gap-5 xl:grid-cols-2">
-        <Section title="Repeats by depot" sub="Last 12 months">
+        <Section title="Repeats by depot" sub={windowText}>
           <div className="table-wrap">
             <table className="data-table">
-              <caption className="sr-only">Repeats by depot, last 12 months</caption>
+              <caption className="sr-only">Repeats by depot, {span}</caption>
               <thead>
                 <tr>
                   <th>Depot</th>
@@ -352,14 +367,14 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
                       <span className="font-semibold">{d.code}</span> <span className="text-ink-500">{d.name}</span>
                     </td>
                     <td className="text-right">
-                      <CountLink n={d.reported} href={defectsHref({ depot: d.code, reportedFrom: since })} label={`${d.code}: ${d.reported} reported`} />
+                      <CountLink n={d.reported} href={defectsHref({ depot: d.code, reportedFrom: since })} label={`${d.code}: ${fmt(d.reported)} reported`} />
                     </td>
                     <td className="text-right">
-                      <CountLink n={d.repeats} href={defectsHref({ depot: d.code, repeat: true, reportedFrom: since })} label={`${d.code}: ${d.repeats} repeats`} />
+                      <CountLink n={d.repeats} href={defectsHref({ depot: d.code, repeat: true, reportedFrom: since })} label={`${d.code}: ${plural(d.repeats, 'repeat')}`} />
                     </td>
                     <td className="text-right tabular-nums">{formatPct(d.rate)}</td>
                     <td className="text-right">
-                      <CountLink n={d.openTotal} href={defectsHref({ depot: d.code, open: true })} label={`${d.code}: ${d.openTotal} open`} />
+                      <CountLink n={d.openTotal} href={defectsHref({ depot: d.code, open: true })} label={`${d.code}: ${fmt(d.openTotal)} open`} />
                     </td>
                     {manages && <td className="text-right tabular-nums">{formatPer100(d.openTotal, d.vehiclesInService)}</td>}
                   </tr>
@@ -368,10 +383,10 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
             </table>
           </div>
         </Section>
-        <Section title="Repeats by module type" sub="Last 12 months, most reported first">
+        <Section title="Repeats by module type" sub={`${windowText}, most reported first`}>
           <div className="table-wrap">
             <table className="data-table">
-              <caption className="sr-only">Repeats by module type, last 12 months</caption>
+              <caption className="sr-only">Repeats by module type, {span}</caption>
               <thead>
                 <tr>
                   <th>Module type</th>
@@ -387,10 +402,10 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
                       <span className="font-semibold whitespace-nowrap">{m.code}</span> <span className="text-ink-500">{m.name}</span>
                     </td>
                     <td className="text-right">
-                      <CountLink n={m.reported} href={defectsHref({ module: m.code, reportedFrom: since })} label={`${m.code}: ${m.reported} reported`} />
+                      <CountLink n={m.reported} href={defectsHref({ module: m.code, reportedFrom: since })} label={`${m.code}: ${fmt(m.reported)} reported`} />
                     </td>
                     <td className="text-right">
-                      <CountLink n={m.repeats} href={defectsHref({ module: m.code, repeat: true, reportedFrom: since })} label={`${m.code}: ${m.repeats} repeats`} />
+                      <CountLink n={m.repeats} href={defectsHref({ module: m.code, repeat: true, reportedFrom: since })} label={`${m.code}: ${plural(m.repeats, 'repeat')}`} />
                     </td>
                     <td className="text-right tabular-nums">{formatPct(m.rate)}</td>
                   </tr>
@@ -398,7 +413,7 @@ function OverviewBody({ initial, scopeText, canReport }: Props) {
                 {o.modules.length === 0 && (
                   <tr>
                     <td colSpan={4} className="text-ink-500">
-                      No defects reported in the last 12 months.
+                      No defects reported {span}.
                     </td>
                   </tr>
                 )}

@@ -1,12 +1,14 @@
 /**
  * The Overview's charts (recharts). Every bar segment and trend point is a real SVG link to the Defects list
  * filtered to the defects it counts, with an accessible name saying what it counts, so a chart can be clicked,
- * tabbed through and read by a screen reader. Charts render after the container is measured (nothing on the
- * server), in a box of fixed height so the page does not jump.
+ * tabbed through and read by a screen reader. Bars are at least 40 px thick and trend points have a 40 px hit
+ * circle, for fingers on a tablet. Charts render after the container is measured (nothing on the server), in a
+ * box of fixed height so the page does not jump. `span` names the exact calendar months shown ("Jan – Dec 2026").
  */
 import type { ReactNode } from 'react';
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis, type BarShapeProps } from 'recharts';
 import { STATUS_LABELS } from '@/components/labels';
+import { plural } from '@/components/defects/format';
 import { useContainerWidth } from '@/components/defects/use-container-width';
 import { OPEN_STATUSES, type OpenStatus, type OverviewDepot, type OverviewModule, type OverviewMonth } from '@/lib/contracts/overview';
 import { defectsHref } from '@/lib/overview/links';
@@ -25,6 +27,10 @@ const INK_200 = '#d8dce2';
 const ESTUARY_700 = '#1a5559';
 const BRICK_600 = '#b23a2b';
 const AXIS = { fontSize: 13, fill: '#4d5665' };
+/** Radius of the invisible circle that takes a tap on a trend point (40 px across). */
+const POINT_HIT_RADIUS = 20;
+/** Height of one bar row in the horizontal bar charts: a 40 px bar and its gap. */
+const BAR_ROW_PX = 48;
 
 /** Measures its width and renders the chart for it; a fixed-height placeholder until then. */
 function ChartBox({ height, label, children }: { height: number; label: string; children: (width: number) => ReactNode }) {
@@ -54,7 +60,7 @@ type StatusRow = { code: string; name: string } & Record<OpenStatus, number>;
 /** Open defects by depot (one bar each), stacked by status; a segment opens that depot's defects in that status. */
 export function StatusDepotChart({ depots }: { depots: OverviewDepot[] }) {
   const data: StatusRow[] = depots.map((d) => ({ code: d.code, name: d.name, ...d.open }));
-  const height = Math.max(180, 56 + data.length * 44);
+  const height = Math.max(180, 64 + data.length * BAR_ROW_PX);
   return (
     <ChartBox height={height} label="Open defects by depot and status">
       {(width) => (
@@ -70,6 +76,7 @@ export function StatusDepotChart({ depots }: { depots: OverviewDepot[] }) {
               dataKey={s}
               stackId="open"
               fill={STATUS_COLOURS[s]}
+              maxBarSize={44}
               isAnimationActive={false}
               shape={linkedBar(
                 (p) => defectsHref({ depot: (p.payload as StatusRow).code, status: s }),
@@ -83,59 +90,90 @@ export function StatusDepotChart({ depots }: { depots: OverviewDepot[] }) {
   );
 }
 
-/** Repeat rate per month (line, %) over the reported count (bars); a point opens that month's repeats. */
-export function RepeatTrendChart({ trend, average }: { trend: OverviewMonth[]; average: number | null }) {
-  const data = trend.map((m) => ({ ...m, label: formatMonth(m.month), ratePct: m.rate === null ? null : Math.round(m.rate * 1000) / 10 }));
+/**
+ * Repeat rate per month (line, %); a point opens that month's repeats. The month still running is counted so far:
+ * its point is hollow and dashed and the line into it is dashed, so a month with one defect is not read as a trend.
+ */
+export function RepeatTrendChart({ trend, average, span }: { trend: OverviewMonth[]; average: number | null; span: string }) {
+  const pct = (m: OverviewMonth) => (m.rate === null ? null : Math.round(m.rate * 1000) / 10);
+  // Whole months draw the solid line; the last whole month and the running one draw the dashed tail.
+  const lastWhole = trend.reduce((k, m, i) => (m.partial ? k : i), -1);
+  const data = trend.map((m, i) => ({
+    ...m,
+    label: formatMonth(m.month),
+    ratePct: pct(m),
+    solidPct: m.partial ? null : pct(m),
+    tailPct: m.partial || (i === lastWhole && trend.some((x) => x.partial)) ? pct(m) : null,
+  }));
+  const partial = trend.find((m) => m.partial);
   const height = 260;
   const ticks = percentTicks(Math.max(0, ...data.map((m) => m.ratePct ?? 0), average === null ? 0 : average * 100));
+  const point = (p: { index: number; cx?: number | null; cy?: number | null }) => {
+    const m = data[p.index];
+    if (!m || m.ratePct === null || p.cx == null || p.cy == null) return <g key={p.index} />;
+    const words = `${m.label}${m.partial ? ' (so far)' : ''}: ${plural(m.repeats, 'repeat')} of ${m.reported.toLocaleString('en-GB')} reported (${formatPct(m.rate)})`;
+    return (
+      <a key={p.index} href={defectsHref({ repeat: true, reportedFrom: m.from, reportedTo: m.to })} aria-label={words} className="chart-link">
+        <circle cx={p.cx} cy={p.cy} r={POINT_HIT_RADIUS} fill="transparent" />
+        <circle cx={p.cx} cy={p.cy} r={4.5} fill="#fff" stroke={BRICK_600} strokeWidth={2} strokeDasharray={m.partial ? '2 2' : undefined} />
+      </a>
+    );
+  };
   return (
-    <ChartBox height={height} label="Repeat rate by month, last 12 months">
-      {(width) => (
-        <LineChart width={width} height={height} data={data} margin={{ top: 12, right: 84, bottom: 4, left: 0 }}>
-          <CartesianGrid vertical={false} stroke={INK_200} />
-          <XAxis dataKey="label" tick={AXIS} interval={width < 560 ? 1 : 0} />
-          <YAxis tick={AXIS} unit="%" width={48} ticks={ticks} domain={[0, ticks[ticks.length - 1]!]} />
-          <Tooltip
-            formatter={(_v, _n, item) => {
-              const m = item.payload as OverviewMonth;
-              return [`${formatPct(m.rate)} (${m.repeats} of ${m.reported})`, 'Repeat rate'];
-            }}
-          />
-          {average !== null && <ReferenceLine y={Math.round(average * 1000) / 10} stroke={INK_400} strokeDasharray="4 4" label={{ value: '12-month rate', position: 'right', fontSize: 12, fill: '#667080' }} />}
-          <Line
-            type="linear"
-            dataKey="ratePct"
-            stroke={BRICK_600}
-            strokeWidth={2}
-            connectNulls
-            isAnimationActive={false}
-            dot={(p) => {
-              const m = data[p.index];
-              if (!m || m.ratePct === null || p.cx == null || p.cy == null) return <g key={p.index} />;
-              return (
-                <a key={p.index} href={defectsHref({ repeat: true, reportedFrom: m.from, reportedTo: m.to })} aria-label={`${m.label}: ${m.repeats} repeats of ${m.reported} reported (${formatPct(m.rate)})`} className="chart-link">
-                  <circle cx={p.cx} cy={p.cy} r={9} fill="transparent" />
-                  <circle cx={p.cx} cy={p.cy} r={4.5} fill="#fff" stroke={BRICK_600} strokeWidth={2} />
-                </a>
-              );
-            }}
-            activeDot={false}
-          />
-        </LineChart>
+    <div>
+      <ChartBox height={height} label={`Repeat rate by month, ${span}`}>
+        {(width) => (
+          <LineChart width={width} height={height} data={data} margin={{ top: 12, right: 84, bottom: 4, left: 0 }}>
+            <CartesianGrid vertical={false} stroke={INK_200} />
+            <XAxis dataKey="label" tick={AXIS} interval={width < 560 ? 1 : 0} />
+            <YAxis tick={AXIS} unit="%" width={48} ticks={ticks} domain={[0, ticks[ticks.length - 1]!]} />
+            <Tooltip
+              formatter={(_v, _n, item) => {
+                const m = item.payload as OverviewMonth;
+                return [`${formatPct(m.rate)} (${m.repeats} of ${m.reported}${m.partial ? ', month so far' : ''})`, 'Repeat rate'];
+              }}
+            />
+            {average !== null && <ReferenceLine y={Math.round(average * 1000) / 10} stroke={INK_400} strokeDasharray="4 4" label={{ value: 'whole window', position: 'right', fontSize: 12, fill: '#667080' }} />}
+            <Line type="linear" dataKey="solidPct" stroke={BRICK_600} strokeWidth={2} connectNulls isAnimationActive={false} dot={(p) => (data[p.index]?.partial ? <g key={p.index} /> : point(p))} activeDot={false} />
+            <Line
+              type="linear"
+              dataKey="tailPct"
+              stroke={BRICK_600}
+              strokeWidth={2}
+              strokeDasharray="5 4"
+              connectNulls
+              isAnimationActive={false}
+              dot={(p) => (data[p.index]?.partial ? point(p) : <g key={p.index} />)}
+              activeDot={false}
+              legendType="none"
+            />
+          </LineChart>
+        )}
+      </ChartBox>
+      {partial && (
+        <p className="mt-1 text-xs text-ink-500">
+          <svg width="22" height="8" className="mr-1 inline-block align-middle" aria-hidden="true">
+            <line x1="1" y1="4" x2="21" y2="4" stroke={BRICK_600} strokeWidth="2" strokeDasharray="5 4" />
+          </svg>
+          {partial.reported === 0
+            ? `${formatMonth(partial.month)} is still running, with no defect reported yet, so it has no point.`
+            : `${formatMonth(partial.month)} is still running: its point counts ${plural(partial.reported, 'defect')} reported so far, not a whole month.`}
+        </p>
       )}
-    </ChartBox>
+    </div>
   );
 }
 
 /** Module types with the most defects reported in the window (bars: repeats and the rest). */
-export function ModuleChart({ modules, windowFrom, limit = 8 }: { modules: OverviewModule[]; windowFrom: string; limit?: number }) {
+export function ModuleChart({ modules, windowFrom, span, limit = 8 }: { modules: OverviewModule[]; windowFrom: string; span: string; limit?: number }) {
   const data = modules.slice(0, limit).map((m) => ({ ...m, others: m.reported - m.repeats }));
-  const height = Math.max(160, 48 + data.length * 34);
+  const height = Math.max(160, 56 + data.length * BAR_ROW_PX);
   const row = (p: BarShapeProps) => p.payload as OverviewModule;
   return (
-    <ChartBox height={height} label="Module types with the most defects, last 12 months">
+    <div>
+    <ChartBox height={height} label={`Module types with the most defects, ${span}`}>
       {(width) => (
-        <BarChart width={width} height={height} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 4 }} barCategoryGap={6}>
+        <BarChart width={width} height={height} data={data} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 4 }} barCategoryGap={8}>
           <CartesianGrid horizontal={false} stroke={INK_200} />
           <XAxis type="number" allowDecimals={false} tick={AXIS} />
           <YAxis type="category" dataKey="code" width={64} tick={AXIS} />
@@ -152,7 +190,7 @@ export function ModuleChart({ modules, windowFrom, limit = 8 }: { modules: Overv
             isAnimationActive={false}
             shape={linkedBar(
               (p) => defectsHref({ module: row(p).code, reportedFrom: windowFrom }),
-              (p) => `${row(p).code}: ${row(p).reported} reported since ${windowFrom}`,
+              (p) => `${row(p).code}: ${row(p).reported.toLocaleString('en-GB')} reported since ${windowFrom}`,
             )}
           />
           <Bar
@@ -162,23 +200,29 @@ export function ModuleChart({ modules, windowFrom, limit = 8 }: { modules: Overv
             isAnimationActive={false}
             shape={linkedBar(
               (p) => defectsHref({ module: row(p).code, repeat: true, reportedFrom: windowFrom }),
-              (p) => `${row(p).code}: ${row(p).repeats} repeats since ${windowFrom}`,
+              (p) => `${row(p).code}: ${plural(row(p).repeats, 'repeat')} since ${windowFrom}`,
             )}
           />
         </BarChart>
       )}
     </ChartBox>
+      {modules.length > data.length && (
+        <p className="mt-1 text-xs text-ink-500">
+          The {data.length} module types with the most defects, of {modules.length}; every one is in “Repeats by module type” below.
+        </p>
+      )}
+    </div>
   );
 }
 
 /** Repeat rate per depot against the rate of every depot shown (the cross-depot comparison). */
-export function DepotRepeatChart({ depots, windowFrom, average }: { depots: OverviewDepot[]; windowFrom: string; average: number | null }) {
+export function DepotRepeatChart({ depots, windowFrom, average, span }: { depots: OverviewDepot[]; windowFrom: string; average: number | null; span: string }) {
   const data = depots.map((d) => ({ ...d, ratePct: d.rate === null ? 0 : Math.round(d.rate * 1000) / 10 }));
   const height = 240;
   const row = (p: BarShapeProps) => p.payload as OverviewDepot;
   const ticks = percentTicks(Math.max(0, ...data.map((d) => d.ratePct)));
   return (
-    <ChartBox height={height} label="Repeat rate by depot, last 12 months">
+    <ChartBox height={height} label={`Repeat rate by depot, ${span}`}>
       {(width) => (
         <BarChart width={width} height={height} data={data} margin={{ top: 12, right: 72, bottom: 4, left: 0 }}>
           <CartesianGrid vertical={false} stroke={INK_200} />
@@ -200,7 +244,7 @@ export function DepotRepeatChart({ depots, windowFrom, average }: { depots: Over
             maxBarSize={56}
             shape={linkedBar(
               (p) => defectsHref({ depot: row(p).code, repeat: true, reportedFrom: windowFrom }),
-              (p) => `${row(p).code}: ${row(p).repeats} repeats of ${row(p).reported} reported (${formatPct(row(p).rate)})`,
+              (p) => `${row(p).code}: ${plural(row(p).repeats, 'repeat')} of ${row(p).reported.toLocaleString('en-GB')} reported (${formatPct(row(p).rate)})`,
             )}
           />
         </BarChart>

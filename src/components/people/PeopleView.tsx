@@ -7,7 +7,8 @@ import { ROLE_LABELS, ROLE_VALUES } from '@/lib/auth/permissions';
 import { DataTable } from '@/components/ui/DataTable';
 import { Dialog } from '@/components/ui/Dialog';
 import { CheckRow } from '@/components/ui/FormField';
-import { personColumns, personSortValue, sortRows } from './columns';
+import { useContainerWidth } from '@/components/defects/use-container-width';
+import { PEOPLE_WIDE_MIN_PX, personColumns, personSortValue, sortRows } from './columns';
 import { PasswordForm, PersonForm } from './PersonForm';
 import { TokensSection } from './TokensSection';
 import { usePeople, type Person } from './queries';
@@ -34,7 +35,9 @@ function People({ meId }: Props) {
   const [pwFor, setPwFor] = useState<Person | null>(null);
   const [busy, setBusy] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
-  const columns = useMemo(() => personColumns({ meId, onEdit: setEditing, onPassword: setPwFor }), [meId]);
+  const [boxRef, width] = useContainerWidth<HTMLDivElement>();
+  const compact = width !== null && width < PEOPLE_WIDE_MIN_PX;
+  const columns = useMemo(() => personColumns({ meId, onEdit: setEditing, onPassword: setPwFor }, compact), [meId, compact]);
   const people = data ?? [];
   const needle = q.trim().toLowerCase();
   const rows = sortRows(
@@ -50,7 +53,7 @@ function People({ meId }: Props) {
   const inactive = people.filter((p) => !p.active).length;
 
   return (
-    <div>
+    <div ref={boxRef}>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
         <div>
           <h1>People</h1>

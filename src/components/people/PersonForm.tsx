@@ -14,8 +14,8 @@ import { useCreatePerson, useUpdatePerson, type Person, type PersonChange } from
 /** What each role may do, in a line (PRODUCT.md roles). */
 export const ROLE_HINTS: Record<Role, string> = {
   admin: 'Everything: people, roles, depots, catalogue, API tokens, settings.',
-  manager: 'All depots: patterns, campaigns, warranty claims, digest settings, and all a supervisor does.',
-  supervisor: 'Assigned depots: vehicles, defects, inspection schedules.',
+  manager: 'All depots: patterns, campaigns, warranty evidence, imports, depots and the module catalogue, and all a supervisor does.',
+  supervisor: 'Assigned depots: vehicles (including off road), defects, and the patterns of those depots (read only).',
   technician: 'Assigned depots: works defects — diagnosis, traces, photos, parts, closing.',
   viewer: 'Assigned depots, or all: reads only.',
 };

@@ -53,94 +53,110 @@ export function personSortValue(p: Person, field: string): string | number | boo
 
 type PersonActions = { meId: number; onEdit: (p: Person) => void; onPassword: (p: Person) => void };
 
-/** The people table's columns. */
-export function personColumns({ meId, onEdit, onPassword }: PersonActions): ColumnDef<Person>[] {
-  return [
-    {
-      id: 'name',
-      header: 'Name · e-mail',
-      cell: ({ row }) => (
-        <div className="min-w-40">
-          <button
-            type="button"
-            className={`-my-1 min-h-8 text-left font-semibold hover:underline ${row.original.active ? 'text-ink-900' : 'text-ink-500'}`}
-            onClick={() => onEdit(row.original)}
-          >
-            {row.original.name}
-            {row.original.id === meId && <span className="ml-1.5 text-xs font-normal text-ink-500">(you)</span>}
-          </button>
-          <div className="text-xs text-ink-500">{row.original.email}</div>
-        </div>
-      ),
-      meta: { sortField: 'name' },
-    },
-    {
-      id: 'role',
-      header: 'Role',
-      cell: ({ row }) => <span className={ROLE_BADGE[row.original.role] ?? 'badge-neutral'}>{ROLE_LABELS[row.original.role]}</span>,
-      meta: { sortField: 'role' },
-    },
-    {
-      id: 'depots',
-      header: 'Depots',
-      cell: ({ row }) =>
-        row.original.allDepots ? (
-          <span className="whitespace-nowrap text-ink-700">All depots</span>
-        ) : row.original.depots.length ? (
-          <span className="flex flex-wrap gap-x-2 gap-y-0.5 mono text-ink-700">
-            {row.original.depots.map((d) => (
-              <span key={d}>{d}</span>
-            ))}
-          </span>
-        ) : (
-          <span className="text-brick-700">None</span>
+/** Container width (CSS px) from which the one-fact-per-column layout fits; below it related facts share a cell. */
+export const PEOPLE_WIDE_MIN_PX = 900;
+
+const roleCell = (p: Person) => <span className={ROLE_BADGE[p.role] ?? 'badge-neutral'}>{ROLE_LABELS[p.role]}</span>;
+
+function depotsCell(p: Person) {
+  if (p.allDepots) return <span className="whitespace-nowrap text-ink-700">All depots</span>;
+  if (!p.depots.length) return <span className="text-brick-700">None</span>;
+  return (
+    <span className="flex flex-wrap gap-x-2 gap-y-0.5 mono text-ink-700">
+      {p.depots.map((d) => (
+        <span key={d}>{d}</span>
+      ))}
+    </span>
+  );
+}
+
+const activeCell = (p: Person) => (p.active ? <span className="badge-moss">Active</span> : <span className="badge-neutral">Deactivated</span>);
+const signInCell = (p: Person) => (p.lastSignInAt ? formatDateTime(p.lastSignInAt) : <span className="text-ink-400">Never</span>);
+
+/** The people table's columns; `compact` (tablet portrait) puts role with depots and status with the last sign-in. */
+export function personColumns({ meId, onEdit, onPassword }: PersonActions, compact = false): ColumnDef<Person>[] {
+  const name: ColumnDef<Person> = {
+    id: 'name',
+    header: 'Name · e-mail',
+    cell: ({ row }) => (
+      <div className="min-w-40">
+        <button
+          type="button"
+          className={`-my-1 min-h-8 text-left font-semibold hover:underline ${row.original.active ? 'text-ink-900' : 'text-ink-500'}`}
+          onClick={() => onEdit(row.original)}
+        >
+          {row.original.name}
+          {row.original.id === meId && <span className="ml-1.5 text-xs font-normal text-ink-500">(you)</span>}
+        </button>
+        <div className="text-xs text-ink-500">{row.original.email}</div>
+      </div>
+    ),
+    meta: { sortField: 'name' },
+  };
+  const tokens: ColumnDef<Person> = {
+    id: 'activeTokens',
+    header: 'Tokens',
+    cell: ({ row }) => (row.original.activeTokens ? row.original.activeTokens : <span className="text-ink-400">0</span>),
+    meta: { sortField: 'activeTokens', align: 'right' },
+  };
+  const actions: ColumnDef<Person> = {
+    id: 'actions',
+    header: () => <span className="sr-only">Actions</span>,
+    cell: ({ row }) => (
+      <div className="-my-1.5 flex justify-end gap-1">
+        <button type="button" className="btn-ghost px-2.5" onClick={() => onEdit(row.original)} aria-label={`Edit ${row.original.name}`} title="Edit role, depots, active">
+          <Pencil size={16} aria-hidden="true" />
+        </button>
+        <button
+          type="button"
+          className="btn-ghost px-2.5"
+          onClick={() => onPassword(row.original)}
+          aria-label={`Reset password of ${row.original.name}`}
+          title="Reset password"
+        >
+          <KeyRound size={16} aria-hidden="true" />
+        </button>
+      </div>
+    ),
+    meta: { align: 'right', className: 'whitespace-nowrap' },
+  };
+  if (compact) {
+    return [
+      name,
+      {
+        id: 'roleDepots',
+        header: 'Role · depots',
+        cell: ({ row }) => (
+          <div className="space-y-1">
+            {roleCell(row.original)}
+            <div className="text-sm">{depotsCell(row.original)}</div>
+          </div>
         ),
-    },
-    {
-      id: 'active',
-      header: 'Active',
-      cell: ({ row }) => (row.original.active ? <span className="badge-moss">Active</span> : <span className="badge-neutral">Deactivated</span>),
-      meta: { sortField: 'active' },
-    },
-    {
-      id: 'lastSignInAt',
-      header: 'Last sign-in',
-      cell: ({ row }) => (row.original.lastSignInAt ? formatDateTime(row.original.lastSignInAt) : <span className="text-ink-400">Never</span>),
-      meta: { sortField: 'lastSignInAt', className: 'whitespace-nowrap' },
-    },
-    {
-      id: 'activeTokens',
-      header: 'Tokens',
-      cell: ({ row }) => (row.original.activeTokens ? row.original.activeTokens : <span className="text-ink-400">0</span>),
-      meta: { sortField: 'activeTokens', align: 'right' },
-    },
-    {
-      id: 'actions',
-      header: () => <span className="sr-only">Actions</span>,
-      cell: ({ row }) => (
-        <div className="-my-1.5 flex justify-end gap-1">
-          <button
-            type="button"
-            className="btn-ghost px-2.5"
-            onClick={() => onEdit(row.original)}
-            aria-label={`Edit ${row.original.name}`}
-            title="Edit role, depots, active"
-          >
-            <Pencil size={16} aria-hidden="true" />
-          </button>
-          <button
-            type="button"
-            className="btn-ghost px-2.5"
-            onClick={() => onPassword(row.original)}
-            aria-label={`Reset password of ${row.original.name}`}
-            title="Reset password"
-          >
-            <KeyRound size={16} aria-hidden="true" />
-          </button>
-        </div>
-      ),
-      meta: { align: 'right', className: 'whitespace-nowrap' },
-    },
+        meta: { sortField: 'role' },
+      },
+      {
+        id: 'activeSignIn',
+        header: 'Status · last sign-in',
+        cell: ({ row }) => (
+          <div className="space-y-1">
+            {activeCell(row.original)}
+            <div className="text-xs whitespace-nowrap text-ink-600">{signInCell(row.original)}</div>
+          </div>
+        ),
+        meta: { sortField: 'lastSignInAt' },
+      },
+      tokens,
+      actions,
+    ];
+  }
+  return [
+    name,
+    { id: 'role', header: 'Role', cell: ({ row }) => roleCell(row.original), meta: { sortField: 'role' } },
+    { id: 'depots', header: 'Depots', cell: ({ row }) => depotsCell(row.original) },
+    { id: 'active', header: 'Active', cell: ({ row }) => activeCell(row.original), meta: { sortField: 'active' } },
+    { id: 'lastSignInAt', header: 'Last sign-in', cell: ({ row }) => signInCell(row.original), meta: { sortField: 'lastSignInAt', className: 'whitespace-nowrap' } },
+    tokens,
+    actions,
   ];
 }
 

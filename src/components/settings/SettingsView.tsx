@@ -1,15 +1,16 @@
 /**
  * The Settings island (admins): the repeat-repair window (a preview says how many defects the new window would
- * change before anything is written; saving recomputes every vehicle's repeat links in one transaction) and the
- * hourly labour rate used for repair costs.
+ * change before anything is written; saving recomputes every vehicle's repeat links in one transaction), the
+ * hourly labour rate used for repair costs, and the currency every amount is in.
  */
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useIslandQueryClient } from '@/lib/client/query-client';
 import { ApiError } from '@/lib/client/api-client';
 import { FormField, fieldAria } from '@/components/ui/FormField';
 import { formatInstant, formatMoneyMinor } from '@/components/defects/format';
 import { REPEAT_WINDOW_MAX_DAYS, REPEAT_WINDOW_MIN_DAYS, type SettingsChangeResult } from '@/lib/contracts/settings';
+import { moneyCurrencies } from '@/lib/money/currency';
 import { useChangeSettings, useSettings } from './queries';
 import { checkRate } from './rate';
 
@@ -25,7 +26,75 @@ function checkDays(text: string): { days: number } | { error: string } {
 
 const rateText = (minor: number | null | undefined) => (minor === null || minor === undefined ? '' : (minor / 100).toFixed(2));
 
-function LabourRateForm({ current, loading }: { current: number | null | undefined; loading: boolean }) {
+function CurrencyForm({ current, loading }: { current: string | undefined; loading: boolean }) {
+  const change = useChangeSettings();
+  const [choice, setChoice] = useState<string | null>(null);
+  const [saved, setSaved] = useState<string | null>(null);
+  const [error, setError] = useState<string | undefined>();
+  // NOTE: the list comes from the runtime's ICU data, which may differ between the server and the browser; it is
+  // built only once the settings have loaded (in the browser), so the server render and hydration agree.
+  const options = useMemo(() => (current ? moneyCurrencies() : []), [current]);
+  const value = choice ?? current ?? '';
+  return (
+    <section className="card card-pad space-y-4" aria-labelledby="currency-h">
+      <div>
+        <h2 id="currency-h">Currency</h2>
+        <p className="mt-1 max-w-prose text-sm text-ink-600">
+          The currency of every amount in Seepline: part costs, the labour rate, repair costs and the money columns of the defects download. Changing it
+          converts nothing; amounts already recorded keep their numbers and are shown in the new currency.
+        </p>
+      </div>
+      <form
+        className="flex flex-wrap items-start gap-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          setError(undefined);
+          change.mutate(
+            { patch: { currency: value }, dryRun: false },
+            {
+              onSuccess: (r) => {
+                setSaved(r.settings.currency);
+                setChoice(null);
+              },
+              onError: (err) => setError(err instanceof ApiError && err.issues[0] ? err.issues[0].message : err.message),
+            },
+          );
+        }}
+      >
+        <FormField id="currency" label="Currency (ISO 4217)" error={error} hint={current ? `In force: ${current}` : undefined} className="w-72">
+          <select
+            {...fieldAria('currency', error, !!current)}
+            className="input"
+            value={value}
+            onChange={(e) => {
+              setChoice(e.target.value);
+              setSaved(null);
+            }}
+            disabled={loading}
+          >
+            {options.map((c) => (
+              <option key={c.code} value={c.code}>
+                {c.code} · {c.name}
+              </option>
+            ))}
+          </select>
+        </FormField>
+        <div className="sm:mt-6">
+          <button type="submit" className="btn-primary" disabled={change.isPending || loading || !value || value === current}>
+            {change.isPending ? 'Saving…' : 'Save the currency'}
+          </button>
+        </div>
+      </form>
+      {saved && (
+        <p role="status" className="rounded-md border border-moss-600/40 bg-moss-50 px-4 py-3 text-sm text-moss-700">
+          <strong>Saved.</strong> Amounts are now shown in {saved} ({formatMoneyMinor(12345, saved)} for example).
+        </p>
+      )}
+    </section>
+  );
+}
+
+function LabourRateForm({ current, currency, loading }: { current: number | null | undefined; currency: string | undefined; loading: boolean }) {
   const change = useChangeSettings();
   const [text, setText] = useState<string | null>(null);
   const [fieldError, setFieldError] = useState<string | undefined>();
@@ -66,9 +135,9 @@ function LabourRateForm({ current, loading }: { current: number | null | undefin
       >
         <FormField
           id="labour-rate"
-          label="Rate per hour"
+          label={currency ? `Rate per hour (${currency})` : 'Rate per hour'}
           error={fieldError}
-          hint={current === undefined ? undefined : current === null ? 'In force: none (parts only)' : `In force: ${formatMoneyMinor(current)} an hour`}
+          hint={current === undefined ? undefined : current === null ? 'In force: none (parts only)' : `In force: ${formatMoneyMinor(current, currency)} an hour`}
           className="w-56"
         >
           <input
@@ -91,7 +160,7 @@ function LabourRateForm({ current, loading }: { current: number | null | undefin
       </form>
       {saved !== undefined && (
         <p role="status" className="rounded-md border border-moss-600/40 bg-moss-50 px-4 py-3 text-sm text-moss-700">
-          <strong>Saved.</strong> {saved === null ? 'No labour rate: costs count parts only.' : `Labour is costed at ${formatMoneyMinor(saved)} an hour.`}
+          <strong>Saved.</strong> {saved === null ? 'No labour rate: costs count parts only.' : `Labour is costed at ${formatMoneyMinor(saved, currency)} an hour.`}
         </p>
       )}
     </section>
@@ -206,7 +275,9 @@ function SettingsForm() {
         )}
       </section>
 
-      <LabourRateForm current={settings.data?.labourRateMinorPerHour} loading={settings.isPending} />
+      <LabourRateForm current={settings.data?.labourRateMinorPerHour} currency={settings.data?.currency} loading={settings.isPending} />
+
+      <CurrencyForm current={settings.data?.currency} loading={settings.isPending} />
 
       <section className="card" aria-labelledby="settings-history-h">
         <div className="border-b border-ink-200 px-4 py-3">
@@ -232,7 +303,9 @@ function SettingsForm() {
                       ? `Repeat links recomputed: ${c.newValue ?? ''} (was ${c.oldValue ?? '–'})`
                       : c.field === 'labour_rate_minor_per_hour'
                         ? `Labour rate ${c.oldValue === null ? 'none' : formatMoneyMinor(Number(c.oldValue))} → ${c.newValue === null ? 'none' : formatMoneyMinor(Number(c.newValue))} an hour`
-                        : `Repeat window ${c.oldValue ?? '–'} → ${c.newValue ?? '–'} days`}
+                        : c.field === 'currency'
+                          ? `Currency ${c.oldValue ?? '–'} → ${c.newValue ?? '–'}`
+                          : `Repeat window ${c.oldValue ?? '–'} → ${c.newValue ?? '–'} days`}
                   </td>
                 </tr>
               ))}

@@ -11,7 +11,7 @@ import type { TraceRecord } from '@/lib/contracts/traces';
 import { defectKey } from '@/components/defect-workflow/queries';
 import { useUnsavedChanges } from '@/components/defect-fields/unsaved';
 import { useIslandQueryClient } from '@/lib/client/query-client';
-import { formatInstant } from '@/components/defects/format';
+import { storedAt } from './columns';
 import { DIRECTION_LABELS, verdictBadge, verdictLabel } from './labels';
 import { formatDeg, formatHz } from './format';
 import { useTraces } from './queries';
@@ -88,7 +88,7 @@ function TraceListForDefect({ defectId, canUpload }: Props) {
                 {formatHz(Math.max(t.channels.a.freqHz, t.channels.b.freqHz))}
               </span>
               <span className="w-full text-xs text-ink-500 sm:w-auto">
-                {formatInstant(t.createdAt)}
+                {storedAt(t)}
                 {t.createdBy ? ` · ${t.createdBy}` : ''}
               </span>
             </li>

@@ -1,8 +1,9 @@
 /**
  * The trace plot island: both hall-sensor channels in stacked lanes (uPlot), drawn from min/max-decimated
  * windows of the stored capture (GET /api/traces/{id}/samples), so a 2,000,000-sample capture stays quick
- * and edges and spikes stay visible; every sample once zoomed in far enough. Each lane marks its channel's
- * 50% reference level and the detected edges (▲ rising, ▼ falling). Zoom by dragging across the plot, with
+ * and edges and spikes stay visible; every sample once zoomed in far enough (each one then marked with a dot).
+ * Each lane marks its channel's 50% reference level (labelled in the margin right of the plot, clear of the
+ * trace) and the detected edges (▲ rising, ▼ falling). Zoom by dragging across the plot, with
  * the mouse wheel, by pinching on a touch screen, or with the buttons; pan with the buttons or one finger;
  * Reset shows the whole capture again. See docs/decisions/010-trace-plot-decimation-cache.md.
  */
@@ -16,7 +17,7 @@ import { toLinePoints } from '@/lib/traces/plot-window';
 import type { TraceSamples } from '@/lib/contracts/traces';
 import { useContainerWidth } from '@/components/defects/use-container-width';
 import { CHANNEL_COLOURS } from './labels';
-import { formatSpan } from './format';
+import { formatSpan, formatWindowBounds } from './format';
 import { useTraceSamples } from './queries';
 
 /** What the plot needs to know about a channel from the analysis. */
@@ -40,6 +41,8 @@ const COMMIT_DELAY_MS = 180;
 const ZOOM_STEP = 2;
 /** Edges are marked only when there is at least this much room per edge, CSS px. */
 const EDGE_MARK_SPACING_PX = 12;
+/** Room right of the plot for the 50% level's label (CSS px), so it never sits on the waveform. */
+const LEVEL_LABEL_GUTTER_PX = 52;
 const AMBER = '#b07a10';
 const GRID = '#eceef1';
 const AXIS = '#4d5665';
@@ -364,13 +367,14 @@ function describeWindow(
 ): { window: string; detail: string } | null {
   if (!data || !shown || !full) return null;
   const whole = shown.fromS <= full.startS && shown.toS >= full.endS;
+  const bounds = formatWindowBounds(shown.fromS - full.startS, shown.toS - full.startS);
   const window = whole
     ? `The whole capture: ${formatSpan(full.endS - full.startS)}`
-    : `${formatSpan(shown.toS - shown.fromS)} shown, from ${formatSpan(shown.fromS - full.startS)} to ${formatSpan(shown.toS - full.startS)} of ${formatSpan(full.endS - full.startS)}`;
+    : `${formatSpan(shown.toS - shown.fromS)} shown, from ${bounds.from} to ${bounds.to} of ${formatSpan(full.endS - full.startS)}`;
   const perColumn = data.windowSamples / Math.max(1, data.columns);
   const detail =
     data.mode === 'raw'
-      ? `Every sample shown (${data.windowSamples.toLocaleString('en-GB')}).`
+      ? `Every sample shown (${data.windowSamples.toLocaleString('en-GB')} in this window), each marked with a dot.`
       : `Each pixel column shows the lowest and highest of about ${Math.round(perColumn).toLocaleString('en-GB')} samples, so edges and short spikes stay visible.`;
   const markable = (e: TraceSamples['edges']['a']) => !e.tooMany && e.count <= Math.max(0, widthCss - 70) / EDGE_MARK_SPACING_PX;
   const edges = markable(data.edges.a) && markable(data.edges.b) ? '' : ' Edges are marked once you zoom in.';
@@ -437,6 +441,8 @@ function laneOptions(o: {
   return {
     width: o.width,
     height: o.height,
+    // Right padding leaves the gutter where the 50% level is labelled (drawOverlay).
+    padding: [8, LEVEL_LABEL_GUTTER_PX, 0, 0],
     legend: { show: false },
     cursor: { sync: { key: o.syncKey }, drag: { x: true, y: false, setScale: false }, points: { show: false }, y: false },
     scales: {
@@ -471,7 +477,17 @@ function laneOptions(o: {
         values: (_u, splits) => splits.map((v) => v.toFixed(2)),
       },
     ],
-    series: [{}, { label: `Channel ${name}`, stroke: colour, width: 1.5, points: { show: false }, spanGaps: false }],
+    series: [
+      {},
+      {
+        label: `Channel ${name}`,
+        stroke: colour,
+        width: 1.5,
+        // Each sample gets a dot once every sample is drawn (raw windows); min/max columns stay a plain line.
+        points: { show: () => o.dataRef.current?.mode === 'raw', size: 5, width: 1, fill: colour, stroke: colour },
+        spanGaps: false,
+      },
+    ],
     hooks: {
       draw: [(u) => drawOverlay(u, o.key, o.channel, o.dataRef.current, colour)],
       setSelect: [o.onSelect],
@@ -495,11 +511,27 @@ function levelSplits(u: uPlot, c: PlotChannel): number[] {
   return out;
 }
 
-/** The 50% reference line and the edge marks of one lane. */
+/** The 50% reference line (labelled in the right gutter, outside the plot) and the edge marks of one lane. */
 function drawOverlay(u: uPlot, k: Key, c: PlotChannel, w: TraceSamples | null, colour: string): void {
   const ctx = u.ctx;
   const { left, top, width, height } = u.bbox;
   const px = window.devicePixelRatio || 1;
+  if (!c.stuck) {
+    const y = Math.round(u.valToPos(c.midV, 'y', true)) + 0.5;
+    if (y >= top && y <= top + height) {
+      // The label goes in the gutter right of the plot area, where no sample is ever drawn.
+      ctx.save();
+      ctx.font = `600 ${11 * px}px "Source Sans 3", ui-sans-serif, sans-serif`;
+      ctx.fillStyle = AMBER;
+      ctx.textAlign = 'left';
+      const x = left + width + 5 * px;
+      ctx.textBaseline = 'bottom';
+      ctx.fillText('50%', x, y - 1 * px);
+      ctx.textBaseline = 'top';
+      ctx.fillText(`${c.midV.toFixed(2)} V`, x, y + 1 * px);
+      ctx.restore();
+    }
+  }
   ctx.save();
   ctx.beginPath();
   ctx.rect(left, top, width, height);
@@ -514,15 +546,6 @@ function drawOverlay(u: uPlot, k: Key, c: PlotChannel, w: TraceSamples | null, c
     ctx.lineTo(left + width, y);
     ctx.stroke();
     ctx.setLineDash([]);
-    const label = `50% ${c.midV.toFixed(2)} V`;
-    ctx.font = `600 ${11 * px}px "Source Sans 3", ui-sans-serif, sans-serif`;
-    const textW = ctx.measureText(label).width;
-    ctx.fillStyle = 'rgba(255, 255, 255, 0.9)';
-    ctx.fillRect(left + width - textW - 10 * px, y - 15 * px, textW + 8 * px, 13 * px);
-    ctx.fillStyle = AMBER;
-    ctx.textAlign = 'right';
-    ctx.textBaseline = 'bottom';
-    ctx.fillText(label, left + width - 6 * px, y - 2 * px);
   }
   const e = w?.edges[k];
   if (e && !e.tooMany && e.timesS.length > 0 && e.timesS.length <= width / (EDGE_MARK_SPACING_PX * px)) {

@@ -14,9 +14,9 @@ import { DataTable } from '@/components/ui/DataTable';
 import { PageSizeSelect, SelectField, pageOf, pageSizeOf } from '@/components/defects/FilterControls';
 import { formatCount } from '@/components/defects/format';
 import { useContainerWidth } from '@/components/defects/use-container-width';
-import { TRACE_WIDE_MIN_PX, traceColumns, traceColumnsCompact } from './columns';
+import { TRACE_WIDE_MIN_PX, traceColumns, traceColumnsCompact, traceRowHref } from './columns';
 import { VERDICT_LABELS } from './labels';
-import { pickTraceParams, useTraces } from './queries';
+import { DEFAULT_TRACE_SORT, pickTraceParams, useTraces } from './queries';
 import { UploadZone } from './UploadZone';
 
 type Props = {
@@ -49,7 +49,8 @@ function TraceList({ initialParams, canUpload }: Props) {
   const [state, update] = useUrlState(initialParams);
   const page = pageOf(state.page);
   const pageSize = pageSizeOf(state.pageSize, 25);
-  const params = useMemo(() => pickTraceParams({ ...state, page: String(page), pageSize: String(pageSize) }), [state, page, pageSize]);
+  const sort = state.sort || DEFAULT_TRACE_SORT;
+  const params = useMemo(() => pickTraceParams({ ...state, page: String(page), pageSize: String(pageSize), sort }), [state, page, pageSize, sort]);
   const list = useTraces(params);
   const depots = useDepotOptions();
   const [boxRef, width] = useContainerWidth<HTMLDivElement>();
@@ -122,13 +123,14 @@ function TraceList({ initialParams, canUpload }: Props) {
             total={total}
             page={page}
             pageSize={pageSize}
-            sort={undefined}
-            onSort={() => undefined}
+            sort={sort}
+            onSort={(s) => update({ sort: s })}
             onPage={onPage}
             loading={list.isLoading || list.isPlaceholderData}
             error={list.error ? list.error.message : null}
             emptyText={filtered ? 'No traces match these filters.' : 'No traces stored yet. Measure a capture to start.'}
             caption="Stored traces"
+            rowHref={traceRowHref}
           />
         </section>
       </div>

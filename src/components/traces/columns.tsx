@@ -1,7 +1,11 @@
-/** Columns of the trace list: wide (one fact a column) and compact (for a tablet in portrait). */
+/**
+ * Columns of the trace list: wide (one fact a column) and compact (for a tablet in portrait). Sort fields are
+ * TRACE_SORT_FIELDS of the API; a trace on a defect was stored at that defect's depot, so its time is shown in the
+ * depot's zone with the zone's abbreviation (the trace page does the same); one without a depot in the viewer's zone.
+ */
 import type { ColumnDef } from '@tanstack/react-table';
 import { POSITION_LABELS } from '@/components/labels';
-import { formatInstant } from '@/components/defects/format';
+import { formatDepotInstant, formatInstant } from '@/components/defects/format';
 import type { TraceRecord } from '@/lib/contracts/traces';
 import { verdictBadge, verdictLabel } from './labels';
 
@@ -9,6 +13,13 @@ import { verdictBadge, verdictLabel } from './labels';
 export const TRACE_WIDE_MIN_PX = 900;
 
 const traceHref = (t: TraceRecord) => `/traces/${encodeURIComponent(t.id)}`;
+/** The page a trace row opens when tapped anywhere (DataTable `rowHref`). */
+export const traceRowHref = traceHref;
+
+/** When a trace was stored, by the one rule for times (src/components/defects/format.ts). */
+export function storedAt(t: Pick<TraceRecord, 'createdAt' | 'depotCode' | 'depotTimeZone'>): string {
+  return t.depotCode ? formatDepotInstant(t.createdAt, t.depotTimeZone) : formatInstant(t.createdAt);
+}
 const fileLabel = (t: TraceRecord) => t.fileName ?? `Capture ${t.id}`;
 
 function Verdict({ t }: { t: TraceRecord }) {
@@ -38,27 +49,29 @@ function VehicleDoor({ t }: { t: TraceRecord }) {
 }
 
 export const traceColumns: ColumnDef<TraceRecord>[] = [
-  { id: 'verdict', header: 'Verdict', cell: ({ row }) => <Verdict t={row.original} /> },
+  { id: 'verdict', header: 'Verdict', meta: { sortField: 'verdict' }, cell: ({ row }) => <Verdict t={row.original} /> },
   {
     id: 'file',
     header: 'Capture',
+    meta: { sortField: 'fileName' },
     cell: ({ row }) => (
       <a className="link break-all" href={traceHref(row.original)}>
         {fileLabel(row.original)}
       </a>
     ),
   },
-  { id: 'defect', header: 'Defect', meta: { className: 'whitespace-nowrap' }, cell: ({ row }) => <DefectLink t={row.original} /> },
+  { id: 'defect', header: 'Defect', meta: { sortField: 'defect', className: 'whitespace-nowrap' }, cell: ({ row }) => <DefectLink t={row.original} /> },
   { id: 'vehicle', header: 'Vehicle / door', cell: ({ row }) => <VehicleDoor t={row.original} /> },
-  { id: 'depot', header: 'Depot', cell: ({ row }) => row.original.depotCode ?? '–' },
-  { id: 'when', header: 'Stored', meta: { className: 'whitespace-nowrap' }, cell: ({ row }) => formatInstant(row.original.createdAt) },
-  { id: 'who', header: 'By', cell: ({ row }) => row.original.createdBy ?? '–' },
+  { id: 'depot', header: 'Depot', meta: { sortField: 'depot' }, cell: ({ row }) => row.original.depotCode ?? '–' },
+  { id: 'when', header: 'Stored', meta: { sortField: 'createdAt', className: 'whitespace-nowrap' }, cell: ({ row }) => storedAt(row.original) },
+  { id: 'who', header: 'By', meta: { sortField: 'createdBy' }, cell: ({ row }) => row.original.createdBy ?? '–' },
 ];
 
 export const traceColumnsCompact: ColumnDef<TraceRecord>[] = [
   {
     id: 'capture',
-    header: 'Capture',
+    header: 'Capture · stored',
+    meta: { sortField: 'createdAt' },
     cell: ({ row }) => {
       const t = row.original;
       return (
@@ -70,7 +83,7 @@ export const traceColumnsCompact: ColumnDef<TraceRecord>[] = [
             </a>
           </div>
           <div className="text-xs text-ink-500">
-            {formatInstant(t.createdAt)}
+            {storedAt(t)}
             {t.createdBy ? ` · ${t.createdBy}` : ''}
           </div>
         </div>
@@ -80,6 +93,7 @@ export const traceColumnsCompact: ColumnDef<TraceRecord>[] = [
   {
     id: 'defect',
     header: 'Defect / vehicle',
+    meta: { sortField: 'defect' },
     cell: ({ row }) => (
       <div className="space-y-1">
         <DefectLink t={row.original} />

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatChangePct, formatDeg, formatHz, formatPct, formatRpm, formatSampleRate, formatSpan, formatVolts } from './format';
+import { formatChangePct, formatDeg, formatHz, formatPct, formatRpm, formatSampleRate, formatSpan, formatVolts, formatWindowBounds } from './format';
 
 describe('trace figure formatting', () => {
   it('formats frequencies to four significant digits, switching to kHz', () => {
@@ -34,5 +34,18 @@ describe('formatSpan (plot readout)', () => {
     expect(formatSpan(1.5)).toBe('1.50 s');
     expect(formatSpan(12.345)).toBe('12.3 s');
     expect(formatSpan(0)).toBe('0 ms');
+  });
+});
+
+describe('formatWindowBounds (plot window caption)', () => {
+  it('gives bounds that differ by the span shown', () => {
+    // 12 samples at 100 kS/s: a 120 µs window from 16.40 ms (the case where "16.4 ms to 16.5 ms" read as 100 µs).
+    expect(formatWindowBounds(0.0164, 0.01652)).toEqual({ from: '16.400 ms', to: '16.520 ms' });
+    expect(formatWindowBounds(0, 0.12)).toEqual({ from: '0 ms', to: '120 ms' });
+    expect(formatWindowBounds(0.05, 0.15)).toEqual({ from: '50 ms', to: '150 ms' });
+    // Half of a 0.19999 s capture: the readout says 100 ms shown, so the bounds are whole milliseconds too.
+    expect(formatWindowBounds(0.0499975, 0.1499925)).toEqual({ from: '50 ms', to: '150 ms' });
+    expect(formatWindowBounds(0.5, 1.25)).toEqual({ from: '0.500 s', to: '1.250 s' });
+    expect(formatWindowBounds(0.00002, 0.0003)).toEqual({ from: '20 µs', to: '300 µs' });
   });
 });

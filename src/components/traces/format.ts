@@ -59,3 +59,17 @@ export function formatSpan(s: number): string {
   }
   return `${(s * 1e9).toPrecision(3)} ns`;
 }
+
+/**
+ * The bounds of a plot window, offsets from the start of the capture, in one unit and with enough decimals that
+ * they differ by the span shown: "16.400 ms" and "16.520 ms" for 120 µs (not "16.4 ms" and "16.5 ms").
+ */
+export function formatWindowBounds(fromS: number, toS: number): { from: string; to: string } {
+  const big = Math.max(Math.abs(fromS), Math.abs(toS));
+  const [scale, unit] = big >= 1 ? [1, 's'] : big >= 1e-3 ? [1e3, 'ms'] : [1e6, 'µs'];
+  // The span as the readout shows it (three significant digits, as formatSpan), so that 99.995 ms counts as 100 ms.
+  const span = Number(((toS - fromS) * scale).toPrecision(3));
+  const decimals = span > 0 ? Math.min(6, Math.max(0, Math.ceil(-Math.log10(span) - 1e-9) + 2)) : 0;
+  const f = (x: number) => `${(x * scale).toFixed(decimals)} ${unit}`;
+  return { from: f(fromS), to: f(toS) };
+}

@@ -8,9 +8,12 @@ import type { ListResponse } from '@/lib/contracts/lists';
 import type { TraceRecord, TraceSamples } from '@/lib/contracts/traces';
 
 /** The list parameters the Traces page keeps in the URL. */
-export type TraceListParams = { page?: string; pageSize?: string; verdict?: string; depot?: string; defectId?: string };
+export type TraceListParams = { page?: string; pageSize?: string; verdict?: string; depot?: string; defectId?: string; sort?: string };
 
-export const TRACE_PARAM_KEYS = ['page', 'pageSize', 'verdict', 'depot', 'defectId'] as const;
+export const TRACE_PARAM_KEYS = ['page', 'pageSize', 'verdict', 'depot', 'defectId', 'sort'] as const;
+
+/** Default order of the trace list: newest first. */
+export const DEFAULT_TRACE_SORT = '-createdAt';
 
 /** Only the list parameters, in a fixed order (a stable query key). */
 export function pickTraceParams(state: Record<string, string | undefined>): TraceListParams {

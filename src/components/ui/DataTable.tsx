@@ -27,10 +27,12 @@ type Props<T> = {
   error?: string | null;
   emptyText?: string;
   caption: string;
+  /** The record a row opens: the whole row becomes tappable (its own link stays, see src/lib/client/row-links.ts). */
+  rowHref?: (row: T) => string | null | undefined;
 };
 
 /** A dense, sortable, paged table. */
-export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSort, onPage, loading, error, emptyText = 'Nothing matches these filters.', caption }: Props<T>) {
+export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSort, onPage, loading, error, emptyText = 'Nothing matches these filters.', caption, rowHref }: Props<T>) {
   const table = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel(), manualPagination: true, manualSorting: true });
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const from = total === 0 ? 0 : (page - 1) * pageSize + 1;
@@ -72,7 +74,7 @@ export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSor
           </thead>
           <tbody className={loading ? 'opacity-60' : ''}>
             {table.getRowModel().rows.map((r) => (
-              <tr key={r.id}>
+              <tr key={r.id} data-row-href={rowHref?.(r.original) ?? undefined}>
                 {r.getVisibleCells().map((c) => {
                   const meta = c.column.columnDef.meta;
                   return (
@@ -93,18 +95,21 @@ export function DataTable<T>({ columns, data, total, page, pageSize, sort, onSor
           </tbody>
         </table>
       </div>
-      <div className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-200 bg-ink-50 px-3 py-2 text-sm">
-        <span className="text-ink-600" aria-live="polite">
-          {loading ? 'Loading…' : total === 0 ? 'No rows' : `${from.toLocaleString('en-GB')}–${to.toLocaleString('en-GB')} of ${total.toLocaleString('en-GB')}`}
-        </span>
-        <div className="flex items-center gap-1">
-          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(1)} aria-label="First page">«</button>
-          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(page - 1)}>Previous</button>
-          <span className="px-2 text-ink-600">Page {page} of {pages.toLocaleString('en-GB')}</span>
-          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(page + 1)}>Next</button>
-          <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(pages)} aria-label="Last page">»</button>
+      {/* An empty table says so once, in its body; the pager appears only when there are rows to page through. */}
+      {(loading || total > 0) && (
+        <div className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-200 bg-ink-50 px-3 py-2 text-sm">
+          <span className="text-ink-600" aria-live="polite">
+            {loading ? 'Loading…' : `${from.toLocaleString('en-GB')}–${to.toLocaleString('en-GB')} of ${total.toLocaleString('en-GB')}`}
+          </span>
+          <div className="flex items-center gap-1">
+            <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(1)} aria-label="First page">«</button>
+            <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page <= 1} onClick={() => onPage(page - 1)}>Previous</button>
+            <span className="px-2 text-ink-600">Page {page} of {pages.toLocaleString('en-GB')}</span>
+            <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(page + 1)}>Next</button>
+            <button type="button" className="btn-ghost min-h-10 px-2.5" disabled={page >= pages} onClick={() => onPage(pages)} aria-label="Last page">»</button>
+          </div>
         </div>
-      </div>
+      )}
     </div>
   );
 }

@@ -66,10 +66,12 @@ type ConfirmProps = {
   /** Runs the action; a thrown error's message is shown in the dialog and the dialog stays open. */
   onConfirm: () => Promise<unknown>;
   danger?: boolean;
+  /** Why the action cannot be done now (known before asking the server): the confirm button is disabled with it. */
+  blockedReason?: string | null;
 };
 
 /** Ask before doing something that cannot be undone; shows the server's answer when it refuses (e.g. 409). */
-export function ConfirmDialog({ open, onClose, title, children, confirmLabel, onConfirm, danger = true }: ConfirmProps) {
+export function ConfirmDialog({ open, onClose, title, children, confirmLabel, onConfirm, danger = true, blockedReason = null }: ConfirmProps) {
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   useEffect(() => {
@@ -96,9 +98,15 @@ export function ConfirmDialog({ open, onClose, title, children, confirmLabel, on
       footer={
         <>
           <button type="button" className="btn-secondary" onClick={onClose}>
-            {error ? 'Close' : 'Cancel'}
+            {error || blockedReason ? 'Close' : 'Cancel'}
           </button>
-          <button type="button" className={danger ? 'btn-danger' : 'btn-primary'} onClick={run} disabled={busy}>
+          <button
+            type="button"
+            className={danger ? 'btn-danger' : 'btn-primary'}
+            onClick={run}
+            disabled={busy || !!blockedReason}
+            aria-describedby={blockedReason ? 'confirm-blocked' : undefined}
+          >
             {busy ? 'Working…' : confirmLabel}
           </button>
         </>
@@ -106,6 +114,11 @@ export function ConfirmDialog({ open, onClose, title, children, confirmLabel, on
     >
       <div className="space-y-3 text-sm">
         {children}
+        {blockedReason && (
+          <p id="confirm-blocked" className="caution">
+            {blockedReason}
+          </p>
+        )}
         {error && (
           <p role="alert" className="rounded-md border border-brick-100 bg-brick-50 px-3 py-2 text-brick-700">
             {error}

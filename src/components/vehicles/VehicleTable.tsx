@@ -11,7 +11,7 @@ import { PARKING_LABELS } from '@/components/labels';
 import { PageSizeSelect, SearchBox, SelectField, pageOf, pageSizeOf } from '@/components/defects/FilterControls';
 import { formatCount } from '@/components/defects/format';
 import { useContainerWidth } from '@/components/defects/use-container-width';
-import { VEHICLE_STATUS_LABELS, VEHICLE_WIDE_MIN_PX, vehicleColumns, vehicleColumnsCompact } from './columns';
+import { VEHICLE_STATUS_LABELS, VEHICLE_WIDE_MIN_PX, vehicleColumns, vehicleColumnsCompact, vehicleRowHref } from './columns';
 import { pickVehicleParams, useDepotOptions, useVehicles } from './queries';
 
 type Props = {
@@ -117,6 +117,7 @@ function VehicleList({ initialParams }: Props) {
         loading={list.isPending || list.isPlaceholderData}
         error={list.error ? list.error.message : null}
         emptyText={filtered ? 'No vehicles match these filters.' : 'No vehicles in your depots yet.'}
+        rowHref={vehicleRowHref}
       />
     </div>
   );

@@ -1,7 +1,7 @@
 /** Columns of the vehicle list (sort fields are the API's VEHICLE_SORT keys). */
 import type { ColumnDef } from '@tanstack/react-table';
 import { PARKING_LABELS } from '@/components/labels';
-import { formatBuildMonth, formatCalendarDate } from '@/components/defects/format';
+import { daysSince, formatBuildMonth, formatCalendarDate, formatDepotDate, formatDepotInstant } from '@/components/defects/format';
 import type { VehicleRow, VehicleStatus } from './queries';
 
 export const VEHICLE_STATUS_LABELS: Record<VehicleStatus, string> = {
@@ -16,6 +16,50 @@ export const VEHICLE_STATUS_BADGE: Record<VehicleStatus, string> = {
 };
 
 const vehicleHref = (vin: string) => `/vehicles/${encodeURIComponent(vin)}`;
+/** The page a vehicle row opens when tapped anywhere (DataTable `rowHref`). */
+export const vehicleRowHref = (v: VehicleRow) => vehicleHref(v.vin);
+
+/**
+ * The status, and for a vehicle off road how long and why: since when (the depot's day, the time in a tooltip),
+ * the reason written down, and the open defects keeping it off road (those still needing the release
+ * verification marked).
+ */
+function StatusCell({ v }: { v: VehicleRow }) {
+  const badge = <span className={VEHICLE_STATUS_BADGE[v.status]}>{VEHICLE_STATUS_LABELS[v.status]}</span>;
+  if (v.status !== 'off_road' || !v.offRoadSince) return badge;
+  const days = daysSince(v.offRoadSince, Date.now());
+  return (
+    <div className="w-[10.5rem] space-y-1 leading-tight">
+      {badge}
+      <div className="text-xs text-ink-600" title={`Off road since ${formatDepotInstant(v.offRoadSince, v.depotTimeZone)}`}>
+        since {formatDepotDate(v.offRoadSince, v.depotTimeZone)}
+        {days !== null && <span className="font-semibold text-ink-800"> · {days} d</span>}
+      </div>
+      {v.offRoadReason && (
+        <div className="line-clamp-2 text-xs text-ink-600" title={v.offRoadReason}>
+          {v.offRoadReason}
+        </div>
+      )}
+      {(v.offRoadDefects ?? []).length > 0 && (
+        <ul className="flex flex-wrap gap-x-2 gap-y-0.5 text-xs">
+          {(v.offRoadDefects ?? []).map((d) => (
+            <li key={d.id}>
+              <a
+                className={d.needsVerification ? 'font-semibold text-brick-700 hover:underline' : 'link font-normal'}
+                href={`/defects/${d.id}`}
+                title={`${d.position} door, ${d.moduleName}${d.needsVerification ? ': still needs the release verification' : ''}`}
+              >
+                <span className="mono">{d.ref}</span>
+                {d.needsVerification && <span aria-hidden="true"> ⚠</span>}
+                <span className="sr-only">{d.needsVerification ? ' (needs the release verification)' : ''}</span>
+              </a>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
 
 const fleetNo: ColumnDef<VehicleRow> = {
   id: 'fleetNumber',
@@ -118,7 +162,8 @@ const openDefects: ColumnDef<VehicleRow> = {
 const status: ColumnDef<VehicleRow> = {
   id: 'status',
   header: 'Status',
-  cell: ({ row }) => <span className={VEHICLE_STATUS_BADGE[row.original.status]}>{VEHICLE_STATUS_LABELS[row.original.status]}</span>,
+  meta: { sortField: 'offRoadSince' },
+  cell: ({ row }) => <StatusCell v={row.original} />,
 };
 
 /** One column per field, for wide screens. */

@@ -28,9 +28,26 @@ export type VehicleRow = {
   modelYear: number | null;
   status: VehicleStatus;
   offRoadSince: string | null;
+  /** Why it is off road, as written when it was taken off (null when in service or not recorded). */
+  offRoadReason: string | null;
+  /** The open defects keeping an off-road vehicle off road (list rows of off-road vehicles only). */
+  offRoadDefects?: OffRoadDefectRow[];
+  depotTimeZone: string | null;
   openDefects: number;
   defects: number;
   version: number;
+};
+
+/** An open defect of a vehicle, as the off-road views show it (mirrors OffRoadDefect in src/server/fleet.ts). */
+export type OffRoadDefectRow = {
+  id: number;
+  ref: string;
+  status: string;
+  position: string;
+  moduleCode: string;
+  moduleName: string;
+  /** Still needs the release verification before the vehicle is released. */
+  needsVerification: boolean;
 };
 
 /** A depot as the filter needs it. */
@@ -85,7 +102,7 @@ export function useDepotOptions() {
 export function useSetOffRoad(vin: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: { offRoad: boolean; version: number }) =>
+    mutationFn: (body: { offRoad: boolean; version: number; offRoadReason?: string | undefined; confirmUnverified?: boolean | undefined }) =>
       apiFetch<VehicleRow>(`/api/vehicles/${encodeURIComponent(vin)}`, { method: 'PATCH', json: body }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: ['vehicles'] });

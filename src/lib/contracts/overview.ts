@@ -26,8 +26,8 @@ export type OverviewDepot = RepeatCounts & {
 /** One module type with defects reported in the window. */
 export type OverviewModule = RepeatCounts & { code: string; name: string };
 
-/** One month of the repeat-rate trend. */
-export type OverviewMonth = RepeatCounts & { month: string; from: string; to: string };
+/** One month of the repeat-rate trend; `partial` for the month still running (counted so far, not a whole month). */
+export type OverviewMonth = RepeatCounts & { month: string; from: string; to: string; partial: boolean };
 
 /** One open defect in the short lists (oldest first). */
 export type OverviewDefect = {
@@ -40,6 +40,8 @@ export type OverviewDefect = {
   vin: string;
   fleetNumber: string | null;
   depotCode: string;
+  /** The depot's IANA time zone (the reported day is shown in it). */
+  depotTimeZone: string | null;
   moduleCode: string;
   symptom: string | null;
   repeatOfId: number | null;
@@ -95,6 +97,8 @@ export type OverviewResponse = {
   repeatWindowDays: number;
   /** First day (UTC) of the twelve-month window of the repeat and module figures. */
   windowFrom: string;
+  /** Last day (UTC) the window covers so far: today, inside the month still running. */
+  windowTo: string;
   /** Age (days) of the "open for long" figure. */
   staleDays: number;
   vehiclesInService: number;

@@ -1,9 +1,10 @@
 /**
  * Settings an admin can change (GET/PATCH /api/settings). Only settings that change what the product does:
- * the repeat-repair window and the hourly labour rate of repair costs. Edit together with src/server/settings.ts
- * when adding one.
+ * the repeat-repair window, the hourly labour rate of repair costs and the currency every amount is in. Edit
+ * together with src/server/settings.ts when adding one.
  */
 import { z } from 'zod';
+import { isMoneyCurrency } from '../money/currency';
 
 /** Bounds of the repeat-repair window, in days (one day to ten years). */
 export const REPEAT_WINDOW_MIN_DAYS = 1;
@@ -30,9 +31,16 @@ export const SettingsPatchSchema = z
       .max(LABOUR_RATE_MAX_MINOR, `labourRateMinorPerHour must be at most ${LABOUR_RATE_MAX_MINOR}`)
       .nullable()
       .optional(),
+    /** ISO 4217 code of every amount (costs, labour rate); two minor digits, since amounts are kept in hundredths. */
+    currency: z
+      .string('currency must be an ISO 4217 code such as GBP or EUR')
+      .trim()
+      .transform((c) => c.toUpperCase())
+      .refine(isMoneyCurrency, 'currency must be an ISO 4217 code with two minor digits, such as GBP, EUR or USD')
+      .optional(),
   })
-  .refine((p) => p.repeatWindowDays !== undefined || p.labourRateMinorPerHour !== undefined, {
-    message: 'Send repeatWindowDays or labourRateMinorPerHour.',
+  .refine((p) => p.repeatWindowDays !== undefined || p.labourRateMinorPerHour !== undefined || p.currency !== undefined, {
+    message: 'Send repeatWindowDays, labourRateMinorPerHour or currency.',
     path: ['repeatWindowDays'],
   });
 /** A validated settings change. */
@@ -42,7 +50,7 @@ export type SettingsPatch = z.infer<typeof SettingsPatchSchema>;
 export const SettingsPatchQuery = z.object({ dryRun: z.enum(['1', '0', 'true', 'false'], 'dryRun must be 1 or 0').optional() });
 
 /** The settings in force. */
-export type Settings = { repeatWindowDays: number; labourRateMinorPerHour: number | null };
+export type Settings = { repeatWindowDays: number; labourRateMinorPerHour: number | null; currency: string };
 
 /** Answer of PATCH /api/settings: the settings and what the repeat recompute changed. */
 export type SettingsChangeResult = {

@@ -48,7 +48,15 @@ export const TraceListQuery = z.object({
   depot: z.string().trim().max(32).optional(),
   page: wholeNumber('page', 1, 1_000_000).optional(),
   pageSize: wholeNumber('pageSize', 1, MAX_PAGE_SIZE).optional(),
+  /** `field` or `-field` of TRACE_SORT_FIELDS; newest first (`-createdAt`) when absent. */
+  sort: z
+    .string()
+    .trim()
+    .regex(/^-?[A-Za-z][A-Za-z0-9_]*$/, 'sort must be a field name, optionally with a leading "-"')
+    .optional(),
 });
+/** Fields the trace list sorts by. */
+export const TRACE_SORT_FIELDS = ['createdAt', 'verdict', 'fileName', 'defect', 'depot', 'createdBy'] as const;
 export type TraceListQuery = z.infer<typeof TraceListQuery>;
 
 /** A stored trace as GET /api/traces and GET /api/traces/{id} answer it. */
@@ -66,6 +74,8 @@ export type TraceRecord = TraceAnalysis & {
   bytes: number;
   createdAt: string | null;
   createdBy: string | null;
+  /** The depot's IANA time zone (times are shown in it), null for a trace not attached to a defect. */
+  depotTimeZone: string | null;
   pulsesPerRev: number | null;
 };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readCsv } from '@/lib/imports/csv-read';
 import { IMPORT_COLUMNS, validateRows } from '@/lib/imports/rows';
-import { buildDefectsCsv, DEFECT_CSV_COLUMNS, defectsCsvFileName, type DefectCsvSource } from './defects-csv';
+import { buildDefectsCsv, DEFECT_CSV_COLUMNS, DEFECT_CSV_REPORT_COLUMNS, defectsCsvFileName, minorToAmount, partsCell, partsCostMinor, type DefectCsvSource } from './defects-csv';
 
 const closed: DefectCsvSource = {
   ref: 'DF-26-00323',
@@ -16,6 +16,21 @@ const closed: DefectCsvSource = {
   action: 'Replaced motor;\nfitted new membrane',
   odometerKm: 113489,
   closedAt: '2026-11-15T01:36:56.365Z',
+  status: 'closed',
+  depotCode: 'GHQ',
+  fleetNumber: 'LV1016',
+  registration: 'GHQ-4941-J',
+  repeatOfRef: 'DF-26-00301',
+  membraneCondition: 'torn',
+  sealCondition: 'ok',
+  drainCondition: 'blocked',
+  connectorCondition: 'corroded',
+  parts: [
+    { partNumber: 'CM-WL2-4471', description: 'Window lifter motor, gen 2', quantity: 1, unitCostMinor: 14230 },
+    { partNumber: 'MEM-FR', description: null, quantity: 2, unitCostMinor: 1550 },
+  ],
+  labourMinutes: 95,
+  costMinor: 29680,
 };
 const open: DefectCsvSource = {
   ref: 'DF-26-00342',
@@ -33,15 +48,33 @@ const open: DefectCsvSource = {
 };
 
 describe('buildDefectsCsv', () => {
-  it('uses exactly the columns of the defects import (CONTRACT.md "Imports")', () => {
+  it('starts with exactly the columns of the defects import (CONTRACT.md "Imports"), the report columns after them', () => {
     const all = [...IMPORT_COLUMNS.defects.required, ...IMPORT_COLUMNS.defects.optional].sort();
     expect([...DEFECT_CSV_COLUMNS].sort()).toEqual(all);
+    for (const c of DEFECT_CSV_REPORT_COLUMNS) expect(all, c).not.toContain(c);
   });
 
   it('writes the header, a BOM and CRLF line ends', () => {
-    const csv = buildDefectsCsv([open]);
-    expect(csv.startsWith('\uFEFFref,vin,reported_at,position,module_code,symptom,dtcs,moisture,root_cause,action,odometer_km,closed_at\r\n')).toBe(true);
-    expect(csv.endsWith('DF-26-00342,SB7LS4CE0ND530131,2026-11-29T13:53:00.000Z,TG,LCK-1,,,,,,,')).toBe(true);
+    const csv = buildDefectsCsv([open], 'GBP');
+    expect(
+      csv.startsWith(
+        '\uFEFFref,vin,reported_at,position,module_code,symptom,dtcs,moisture,root_cause,action,odometer_km,closed_at,' +
+          'status,depot_code,fleet_number,registration,repeat_of,membrane_condition,seal_condition,drain_condition,connector_condition,parts,parts_cost,labour_minutes,cost,currency\r\n',
+      ),
+    ).toBe(true);
+    // No money on the record: no currency either.
+    expect(csv.endsWith('DF-26-00342,SB7LS4CE0ND530131,2026-11-29T13:53:00.000Z,TG,LCK-1,,,,,,,,,,,,,,,,,,,,,')).toBe(true);
+  });
+
+  it('writes status, depot, findings, parts, labour and cost in major units with the currency', () => {
+    const t = readCsv(buildDefectsCsv([closed], 'GBP'));
+    const c = t.records[0]!.cells;
+    expect([c.status, c.depot_code, c.fleet_number, c.registration, c.repeat_of]).toEqual(['closed', 'GHQ', 'LV1016', 'GHQ-4941-J', 'DF-26-00301']);
+    expect([c.membrane_condition, c.seal_condition, c.drain_condition, c.connector_condition]).toEqual(['torn', 'ok', 'blocked', 'corroded']);
+    expect(c.parts).toBe('CM-WL2-4471 ×1 (Window lifter motor, gen 2); MEM-FR ×2');
+    // 142.30 + 2 × 15.50 = 173.30 (an independent sum of the two lines above).
+    expect(c.parts_cost).toBe('173.30');
+    expect([c.labour_minutes, c.cost, c.currency]).toEqual(['95', '296.80', 'GBP']);
   });
 
   it('re-reads through the import reader and validator with the same values and no errors', () => {
@@ -76,8 +109,27 @@ describe('buildDefectsCsv', () => {
 
   it('writes only the header for an empty view', () => {
     const table = readCsv(buildDefectsCsv([]));
-    expect(table.headers).toEqual([...DEFECT_CSV_COLUMNS]);
+    expect(table.headers).toEqual([...DEFECT_CSV_COLUMNS, ...DEFECT_CSV_REPORT_COLUMNS]);
     expect(table.records).toEqual([]);
+  });
+
+  it('guards a part number or condition note that looks like a formula', () => {
+    const csv = buildDefectsCsv([{ ...closed, sealCondition: '+cracked', parts: [{ partNumber: '=1+1', description: null, quantity: 1, unitCostMinor: null }] }], 'EUR');
+    const line = csv.split('\r\n')[1]!;
+    expect(line).toContain(',"\'+cracked",');
+    expect(line).toContain(',"\'=1+1 ×1",');
+  });
+});
+
+describe('money and parts cells', () => {
+  it('writes minor units as a plain amount', () => {
+    expect([minorToAmount(29680), minorToAmount(5), minorToAmount(0), minorToAmount(-150), minorToAmount(null)]).toEqual(['296.80', '0.05', '0.00', '-1.50', '']);
+  });
+  it('sums the costed part lines, or none', () => {
+    expect(partsCostMinor([{ partNumber: 'A', description: null, quantity: 3, unitCostMinor: 250 }, { partNumber: 'B', description: null, quantity: 1, unitCostMinor: null }])).toBe(750);
+    expect(partsCostMinor([{ partNumber: 'B', description: null, quantity: 1, unitCostMinor: null }])).toBeNull();
+    expect(partsCostMinor(undefined)).toBeNull();
+    expect(partsCell([])).toBe('');
   });
 });
 

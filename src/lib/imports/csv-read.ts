@@ -1,7 +1,9 @@
 /**
  * Spreadsheet CSV reading for imports (CONTRACT.md "Imports"): UTF-8 with or without BOM, LF or CRLF,
  * comma or semicolon delimiter (detected from the header row), RFC 4180 quoting via papaparse, blank lines
- * ignored, headers case-insensitive with surrounding spaces trimmed, data rows numbered from 1.
+ * ignored, headers case-insensitive with surrounding spaces trimmed, data rows numbered from 1 (CONTRACT.md). Each
+ * record also knows its line in the spreadsheet the file came from (the header's row is usually line 1; blank
+ * rows count, as a spreadsheet shows them), so that a problem can be found in the sheet.
  */
 import Papa from 'papaparse';
 
@@ -9,7 +11,9 @@ export type CsvTable = {
   /** Normalised header names (lower case, trimmed, inner spaces as `_`). */
   headers: string[];
   /** Data records; `row` is 1 for the first data row. Cells are trimmed strings ('' = no value). */
-  records: Array<{ row: number; cells: Record<string, string> }>;
+  records: Array<{ row: number; line: number; cells: Record<string, string> }>;
+  /** Spreadsheet line of the header row. */
+  headerLine: number;
   delimiter: ',' | ';';
 };
 
@@ -52,13 +56,17 @@ export function detectDelimiter(text: string): ',' | ';' {
 export function readCsv(input: string): CsvTable {
   const text = input.replace(/^\uFEFF/, '');
   if (text.trim() === '') throw new CsvFormatError('The file is empty: expected a header row and data rows.');
-  const delimiter = detectDelimiter(text);
+  // Detect from the first line that holds anything (blank lines above the header are allowed).
+  const delimiter = detectDelimiter(text.replace(/^(?:[ \t]*\r?\n)+/, ''));
   const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false, header: false });
   const quoteError = parsed.errors.find((e) => e.type === 'Quotes');
   const rows = parsed.data;
-  // Drop blank lines (including trailing ones) but keep record numbering by data records.
-  const nonBlank = rows.filter((r) => !(r.length === 1 && (r[0] ?? '').trim() === '') && r.some((c) => c.trim() !== ''));
-  const headerRow = nonBlank[0];
+  // Drop blank lines (including trailing ones) but keep record numbering by data records; remember each record's
+  // spreadsheet line (its index among all records, blank ones included, from 1; a quoted line break stays in its row).
+  const nonBlank = rows
+    .map((r, i) => ({ r, line: i + 1 }))
+    .filter(({ r }) => !(r.length === 1 && (r[0] ?? '').trim() === '') && r.some((c) => c.trim() !== ''));
+  const headerRow = nonBlank[0]?.r;
   if (!headerRow) throw new CsvFormatError('The file has no header row.');
   if (quoteError) {
     throw new CsvFormatError(
@@ -67,14 +75,14 @@ export function readCsv(input: string): CsvTable {
     );
   }
   const headers = headerRow.map(normaliseHeader);
-  const records = nonBlank.slice(1).map((r, i) => {
+  const records = nonBlank.slice(1).map(({ r, line }, i) => {
     const cells: Record<string, string> = {};
     headers.forEach((h, j) => {
       if (h !== '' && !(h in cells)) cells[h] = unguardFormula((r[j] ?? '').trim());
     });
-    return { row: i + 1, cells };
+    return { row: i + 1, line, cells };
   });
-  return { headers, records, delimiter };
+  return { headers, records, delimiter, headerLine: nonBlank[0]!.line };
 }
 
 /**

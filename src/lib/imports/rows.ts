@@ -373,6 +373,52 @@ export function validateRows<K extends ImportKind>(kind: K, table: CsvTable): Va
   return { rows, errors, warnings };
 }
 
+/**
+ * How a person finds a record of the file in their sheet: its code (depots, modules), VIN (vehicles), or ref, else
+ * VIN (defects), as written in the file; null when the cell is empty.
+ */
+export function recordLabel(kind: ImportKind, cells: Record<string, string>): string | null {
+  const v = (c: string) => (cells[c] ?? '').trim() || null;
+  switch (kind) {
+    case 'depots':
+    case 'modules':
+      return v('code') ? `code ${v('code')}` : null;
+    case 'vehicles':
+      return v('vin') ? `VIN ${v('vin')}` : null;
+    case 'defects':
+      return v('ref') ? `ref ${v('ref')}` : v('vin') ? `VIN ${v('vin')}` : null;
+  }
+}
+
+/** A reference from a record to another record (a depot code, a VIN, a module code), checked against the database. */
+export type RecordReference = { row: number; column: 'depot_code' | 'vin' | 'module_code'; value: string };
+
+/**
+ * The references of every record of a file, valid or not, in the form the database keys them (upper case), so that
+ * an unknown one is reported in the same pass as the field problems. A reference whose cell is empty or malformed
+ * is left out: its own field problem already says so.
+ */
+export function recordReferences(kind: ImportKind, table: CsvTable): RecordReference[] {
+  const out: RecordReference[] = [];
+  for (const rec of table.records) {
+    const cell = (c: string) => (rec.cells[c] ?? '').trim();
+    if (kind === 'vehicles') {
+      const code = cell('depot_code');
+      if (code && code.length <= 16) out.push({ row: rec.row, column: 'depot_code', value: code.toUpperCase() });
+    }
+    if (kind === 'defects') {
+      const vin = cell('vin');
+      if (vin) {
+        const r = parseVin(vin);
+        if (r.ok || r.code === 'check_digit') out.push({ row: rec.row, column: 'vin', value: vin.toUpperCase() });
+      }
+      const code = cell('module_code');
+      if (code && code.length <= 32) out.push({ row: rec.row, column: 'module_code', value: code.toUpperCase() });
+    }
+  }
+  return out;
+}
+
 /** camelCase → snake_case (CSV column names). */
 export function toColumnName(key: string): string {
   return key.replace(/[A-Z]/g, (c) => '_' + c.toLowerCase());

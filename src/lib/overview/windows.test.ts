@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fillMonths, monthWindows, repeatRate } from './windows';
+import { fillMonths, monthWindows, repeatRate, windowLabel } from './windows';
 
 describe('monthWindows', () => {
   it('gives the twelve calendar months ending with the current one, across a year end', () => {
@@ -37,5 +37,18 @@ describe('repeatRate / fillMonths', () => {
       ['2026-02', 8, 2, 0.25],
       ['2026-03', 0, 0, null],
     ]);
+  });
+});
+
+describe('windowLabel', () => {
+  it('names the months exactly, within a year and across a year end, and says when the last one is still running', () => {
+    expect(windowLabel('2026-01', '2026-12', true)).toBe('Jan – Dec 2026, this month so far');
+    expect(windowLabel('2025-07', '2026-06', true)).toBe('Jul 2025 – Jun 2026, this month so far');
+    expect(windowLabel('2025-07', '2026-06', false)).toBe('Jul 2025 – Jun 2026');
+    expect(windowLabel('2026-03', '2026-03', false)).toBe('Mar 2026');
+  });
+  it('fits the windows monthWindows gives on 2 Dec 2026', () => {
+    const w = monthWindows(Date.UTC(2026, 11, 2, 15, 0), 12);
+    expect(windowLabel(w[0]!.month, w[11]!.month, true)).toBe('Jan – Dec 2026, this month so far');
   });
 });

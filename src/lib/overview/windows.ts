@@ -47,3 +47,18 @@ export function fillMonths(
     return { ...w, reported: c.reported, repeats: c.repeats, rate: repeatRate(c.repeats, c.reported) };
   });
 }
+
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+const monthWord = (ym: string) => MONTHS[Number(ym.slice(5, 7)) - 1] ?? ym;
+
+/**
+ * The exact words of a window of calendar months, e.g. "Jan – Dec 2026" or "Jul 2025 – Jun 2026", with
+ * ", this month so far" when the last month is still running, so that nobody reads it as "the last twelve months"
+ * or takes the current month for a whole one.
+ */
+export function windowLabel(firstMonth: string, lastMonth: string, lastIsPartial: boolean): string {
+  const y1 = firstMonth.slice(0, 4);
+  const y2 = lastMonth.slice(0, 4);
+  const span = firstMonth === lastMonth ? `${monthWord(lastMonth)} ${y2}` : y1 === y2 ? `${monthWord(firstMonth)} – ${monthWord(lastMonth)} ${y2}` : `${monthWord(firstMonth)} ${y1} – ${monthWord(lastMonth)} ${y2}`;
+  return lastIsPartial ? `${span}, this month so far` : span;
+}

@@ -49,6 +49,21 @@ describe('buildPlotWindow', () => {
     expect(w.windowSamples).toBe(11);
   });
 
+  it('sends the samples just outside a raw window whose edges fall between samples, so the line reaches the edges', () => {
+    // Samples every 1 ms; a window from 430.4 ms to 439.6 ms holds 431…439 and has 430 and 440 just outside it.
+    const w = buildPlotWindow(capture(), { a: edgesA, b: none }, { fromS: 0.4304, toS: 0.4396, columns: 800 });
+    expect(w.mode).toBe('raw');
+    expect(w.timeS).toEqual([0.43, 0.431, 0.432, 0.433, 0.434, 0.435, 0.436, 0.437, 0.438, 0.439, 0.44]);
+    expect(w.timeS[0]!).toBeLessThan(w.fromS);
+    expect(w.timeS[w.timeS.length - 1]!).toBeGreaterThan(w.toS);
+    expect(w.b.min).toEqual([1, 1, 1, 1, 1, 1, 1, 3.25, 1, 1, 1]);
+    // Only the samples inside the window count as shown.
+    expect(w.windowSamples).toBe(9);
+    // At the ends of the capture there is nothing beyond to add.
+    const start = buildPlotWindow(capture(), { a: edgesA, b: none }, { fromS: 0, toS: 0.0055, columns: 800 });
+    expect(start.timeS).toEqual([0, 0.001, 0.002, 0.003, 0.004, 0.005, 0.006]);
+  });
+
   it('clamps the window to the capture and lists the edges inside it with their polarity', () => {
     const w = buildPlotWindow(capture(), { a: edgesA, b: none }, { fromS: -5, toS: 0.2, columns: 10 });
     expect(w.fromS).toBe(0);

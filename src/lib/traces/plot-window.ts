@@ -3,6 +3,8 @@
  * to the plot's pixel columns (decimate.ts) so that edges, glitches and one-sample spikes survive at any
  * zoom, or every sample once the window holds fewer than two per column; plus the detected edges inside the
  * window. The result is plain JSON (numbers rounded, empty columns as null) for GET /api/traces/{id}/samples.
+ * In raw mode the samples just outside the window are sent too (when the window's edge falls between two
+ * samples), so the line reaches both edges of the plot instead of starting a sample's width inside it.
  */
 import type { CaptureData } from './capture-parse';
 import { isRisingEdge, type EdgeTrain } from './crossings';
@@ -45,7 +47,7 @@ export interface PlotWindow {
   /** Samples of the capture inside the window, and in all. */
   windowSamples: number;
   totalSamples: number;
-  /** Sample instants (raw) or column centres (minmax), seconds. */
+  /** Sample instants (raw, with the neighbouring sample beyond an edge that falls between samples) or column centres (minmax), seconds. */
   timeS: number[];
   a: PlotSeries;
   b: PlotSeries;
@@ -103,8 +105,20 @@ export function buildPlotWindow(
   const da = decimateMinMax(capture.time, capture.a, fromS, toS, opts.columns);
   const db = decimateMinMax(capture.time, capture.b, fromS, toS, opts.columns);
   const raw = da.mode === 'raw';
-  const series = (d: typeof da): PlotSeries => ({
-    min: Array.from(d.minV, volts),
+  // Raw: add the sample before and after the window when the window's edge falls between samples (by more than a
+  // hundredth of a sample interval, so that an edge on a sample, give or take rounding, adds nothing).
+  const t = capture.time;
+  const gapBefore = (i: number) => i >= n || t[i]! - fromS > 0.01 * (t[i]! - t[i - 1]!);
+  const gapAfter = (i: number) => i < 0 || toS - t[i]! > 0.01 * (t[i + 1]! - t[i]!);
+  const before = raw && da.fromIndex > 0 && (da.toIndex === da.fromIndex || gapBefore(da.fromIndex)) ? da.fromIndex - 1 : null;
+  const after = raw && da.toIndex < n && (da.toIndex === da.fromIndex || gapAfter(da.toIndex - 1)) ? da.toIndex : null;
+  const pad = (inside: ArrayLike<number>, all: Float64Array): number[] => [
+    ...(before === null ? [] : [all[before]!]),
+    ...Array.from(inside),
+    ...(after === null ? [] : [all[after]!]),
+  ];
+  const series = (d: typeof da, all: Float64Array): PlotSeries => ({
+    min: (raw ? pad(d.minV, all) : Array.from(d.minV)).map(volts),
     max: raw ? null : Array.from(d.maxV, volts),
   });
   return {
@@ -116,9 +130,9 @@ export function buildPlotWindow(
     columns: opts.columns,
     windowSamples: da.toIndex - da.fromIndex,
     totalSamples: n,
-    timeS: Array.from(da.timeS, (t) => sig(t, 12)),
-    a: series(da),
-    b: series(db),
+    timeS: (raw ? pad(da.timeS, capture.time) : Array.from(da.timeS)).map((t) => sig(t, 12)),
+    a: series(da, capture.a),
+    b: series(db, capture.b),
     edges: { a: edgesIn(edges.a, fromS, toS), b: edgesIn(edges.b, fromS, toS) },
   };
 }

@@ -7,7 +7,7 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { getDb } from '@/db/client';
 import { attachments, defects, depots, users, vehicles } from '@/db/schema';
 import { uploadDir } from '@/env';
@@ -18,7 +18,8 @@ import { loadCapture, rememberCapture } from './capture-cache';
 import { inScope, requireDepotScope, type SessionUser } from '../auth';
 import { HttpError, invalid, notFound } from '../http';
 import { writeAudit, type Actor } from '../audit';
-import { depotScope, iso } from '../list-helpers';
+import { depotScope, iso, orderBy } from '../list-helpers';
+import type { TRACE_SORT_FIELDS } from '@/lib/contracts/traces';
 
 /** Largest capture accepted by upload (2,000,000 samples of three columns fit well inside). */
 export const MAX_TRACE_UPLOAD_BYTES = 96 * 1024 * 1024;
@@ -113,6 +114,7 @@ function traceQuery() {
       fleetNumber: vehicles.fleetNumber,
       registration: vehicles.registration,
       depotCode: depots.code,
+      depotTimeZone: depots.timezone,
       createdBy: users.name,
     })
     .from(attachments)
@@ -145,6 +147,7 @@ function traceJson(r: TraceRow) {
     bytes: r.a.bytes,
     createdAt: iso(r.a.createdAt),
     createdBy: r.createdBy,
+    depotTimeZone: r.depotTimeZone,
     ...stored,
     pulsesPerRev: stored.pulsesPerRev ?? null,
   };
@@ -166,8 +169,18 @@ export function getTrace(user: SessionUser, id: number): TraceJson {
   return traceJson(requireTraceRow(user, id));
 }
 
-/** Stored traces, newest first, optionally for one defect, one verdict or one depot. */
-export function listTraces(user: SessionUser, q: { defectId?: number; verdict?: string; depot?: string; page: number; pageSize: number }) {
+/** Sort columns of the trace list (TRACE_SORT_FIELDS). */
+const TRACE_SORT = {
+  createdAt: attachments.createdAt,
+  verdict: sql`json_extract(${attachments.analysis}, '$.verdict')`,
+  fileName: sql`lower(${attachments.originalName})`,
+  defect: defects.ref,
+  depot: depots.code,
+  createdBy: users.name,
+} satisfies Record<(typeof TRACE_SORT_FIELDS)[number], unknown>;
+
+/** Stored traces, newest first unless sorted otherwise, optionally for one defect, one verdict or one depot. */
+export function listTraces(user: SessionUser, q: { defectId?: number; verdict?: string; depot?: string; sort?: string; page: number; pageSize: number }) {
   const db = getDb();
   const scope = depotScope(user, attachments.depotId);
   const visibleToCaller = scope ? sql`(${scope} or (${attachments.depotId} is null and ${attachments.createdById} = ${user.id}))` : undefined;
@@ -185,7 +198,8 @@ export function listTraces(user: SessionUser, q: { defectId?: number; verdict?: 
       .leftJoin(depots, eq(depots.id, attachments.depotId))
       .where(where)
       .get()?.n ?? 0;
-  const rows = traceQuery().where(where).orderBy(desc(attachments.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize).all();
+  const order = orderBy(q.sort, TRACE_SORT, '-createdAt', attachments.id);
+  const rows = traceQuery().where(where).orderBy(...order).limit(q.pageSize).offset((q.page - 1) * q.pageSize).all();
   return { items: rows.map(traceJson), total, page: q.page, pageSize: q.pageSize };
 }
 

@@ -48,12 +48,13 @@ export const POST = handle(async (ctx) => {
   const result = runImport(kind, text, { dryRun, actor: actorOf(user) });
   if (result.errors.length > 0) {
     const first = result.errors[0]!;
+    const line = result.issueRows.find((r) => r.row === first.row)?.line;
     return json(
       {
         ...result,
         error: {
           code: 'INVALID_INPUT',
-          message: `${result.errors.length} problem${result.errors.length > 1 ? 's' : ''} in the file (first: row ${first.row}, ${first.column || 'file'}: ${first.message}); nothing was written.`,
+          message: `${result.errors.length} problem${result.errors.length > 1 ? 's' : ''} in the file (first: row ${first.row}${line ? ` (spreadsheet line ${line})` : ''}, ${first.column || 'file'}: ${first.message}); nothing was written.`,
           issues: result.errors,
         },
       },

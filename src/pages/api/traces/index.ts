@@ -47,11 +47,11 @@ export const POST = handle(async (ctx) => {
   return json(storeTrace(user, bytes, file.name || null, parsed.data, actorOf(user)), 201);
 });
 
-/** Stored traces in the caller's depots, newest first (filters: defectId, verdict, depot code). */
+/** Stored traces in the caller's depots, newest first or by `sort` (filters: defectId, verdict, depot code). */
 export const GET = handle((ctx) => {
   const user = requirePermission(ctx, 'read');
   const q = readQuery(ctx, TraceListQuery);
-  return json(listTraces(user, { defectId: q.defectId, verdict: q.verdict, depot: q.depot, page: q.page ?? 1, pageSize: q.pageSize ?? 50 }));
+  return json(listTraces(user, { defectId: q.defectId, verdict: q.verdict, depot: q.depot, sort: q.sort, page: q.page ?? 1, pageSize: q.pageSize ?? 50 }));
 });
 
 export const ALL = methodNotAllowed('GET, POST');
