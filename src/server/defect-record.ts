@@ -23,6 +23,7 @@ import { inScope, requireDepotScope, type SessionUser } from './auth';
 import { conflict, forbidden, HttpError, invalid, notFound } from './http';
 import { iso } from './list-helpers';
 import { defectJson, defectSelect, earlier } from './defect-json';
+import { currencyCode } from './currency';
 import { applyDefectRow, writeDefectCodes } from './imports';
 import { refreshRepeats, repeatWindowDays } from './repeats';
 import { listAudit, writeAudit, type Actor } from './audit';
@@ -121,6 +122,7 @@ export function getDefect(user: SessionUser, id: number): DefectRecord {
     parts,
     partsTotalMinor: partsTotalMinor(parts),
     labourRateMinorPerHour: labourRateMinorPerHour(db),
+    currency: currencyCode(db),
     reportedBy: name(d.reportedById),
     reportedById: d.reportedById,
     assignedTo: name(d.assignedToId),

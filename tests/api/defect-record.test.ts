@@ -94,7 +94,7 @@ describe('the diagnosis and repair record', () => {
     expect(res.status, await res.clone().text()).toBe(200);
     const r = await body(res);
     // 18900 + 2 × 2450 = 23800 in parts; 95 min at 78.00/h = 12350.
-    expect(r).toMatchObject({ version: 2, partsTotalMinor: 23800, costMinor: 36150, labourMinutes: 95, labourRateMinorPerHour: 7800, drainCondition: 'blocked' });
+    expect(r).toMatchObject({ version: 2, partsTotalMinor: 23800, costMinor: 36150, labourMinutes: 95, labourRateMinorPerHour: 7800, currency: 'GBP', drainCondition: 'blocked' });
     expect(r.parts).toEqual([
       { partNumber: 'PN-100', description: 'Window lifter motor', quantity: 1, unitCostMinor: 18900 },
       { partNumber: 'LV-MBK-210', description: null, quantity: 2, unitCostMinor: 2450 },

@@ -18,10 +18,10 @@ type Props = { initial: DefectRecord; timeZone: string | null };
 const short = (v: string) => (v.length > 80 ? `${v.slice(0, 80)}…` : v);
 
 /** An audit value in words: instants as dates, money, minutes and enumerations by their labels. */
-export function auditValue(field: string | null, v: string | null, timeZone: string | null): string {
+export function auditValue(field: string | null, v: string | null, timeZone: string | null, currency?: string | null): string {
   if (v === null || v === '') return '–';
   if (field && /At$/.test(field) && /^\d{10,}$/.test(v)) return formatInstant(new Date(Number(v)).toISOString(), timeZone);
-  if (field === 'costMinor' && /^-?\d+$/.test(v)) return formatMoneyMinor(Number(v));
+  if (field === 'costMinor' && /^-?\d+$/.test(v)) return formatMoneyMinor(Number(v), currency);
   if (field === 'labourMinutes' && /^\d+$/.test(v)) return formatMinutes(Number(v));
   if (field === 'status') return STATUS_LABELS[v] ?? v;
   if (field === 'moisture') return MOISTURE_LABELS[v] ?? v;
@@ -77,17 +77,17 @@ function Trail({ initial, timeZone }: Props) {
                   ) : a.field && a.field !== 'reason' ? (
                     <span>
                       <span className="text-ink-500" title={a.oldValue ?? undefined}>
-                        {a.oldLabel ?? auditValue(a.field, a.oldValue, timeZone)}
+                        {a.oldLabel ?? auditValue(a.field, a.oldValue, timeZone, r.currency)}
                       </span>{' '}
                       <span aria-label="changed to">→</span>{' '}
                       <span className="text-ink-900" title={a.newValue ?? undefined}>
-                        {a.newLabel ?? auditValue(a.field, a.newValue, timeZone)}
+                        {a.newLabel ?? auditValue(a.field, a.newValue, timeZone, r.currency)}
                       </span>
                       {a.reason && <span className="mt-0.5 block text-ink-600">“{a.reason}”</span>}
                     </span>
                   ) : (
                     <span className="text-ink-600" title={a.newValue ?? undefined}>
-                      {auditValue(null, a.newValue ?? a.oldValue, timeZone)}
+                      {auditValue(null, a.newValue ?? a.oldValue, timeZone, r.currency)}
                     </span>
                   )}
                 </td>

@@ -118,7 +118,7 @@ function DiagnosisView({ record }: { record: DefectRecord }) {
         <Row label="Action" value={display('action', v.action)} />
         {record.notes && <Row label="Notes" value={record.notes} />}
         <Row label="Labour" value={display('labourMinutes', v.labourMinutes)} />
-        <Row label="Cost" value={record.costMinor === null ? '–' : formatMoneyMinor(record.costMinor)} />
+        <Row label="Cost" value={record.costMinor === null ? '–' : formatMoneyMinor(record.costMinor, record.currency)} />
       </dl>
       {record.parts.length > 0 && <PartsTable record={record} />}
     </>
@@ -158,7 +158,7 @@ function PartsTable({ record }: { record: DefectRecord }) {
                 {p.description && <div className="text-xs text-ink-500">{p.description}</div>}
               </td>
               <td className="text-right tabular-nums">{p.quantity}</td>
-              <td className="text-right tabular-nums">{formatMoneyMinor(p.unitCostMinor)}</td>
+              <td className="text-right tabular-nums">{formatMoneyMinor(p.unitCostMinor, record.currency)}</td>
             </tr>
           ))}
         </tbody>
@@ -362,12 +362,12 @@ function DiagnosisForm({ record, timeZone }: { record: DefectRecord; timeZone: s
               <input className={`${INPUT} tabular-nums`} inputMode="numeric" defaultValue={d.labourMinutes} {...fieldAria(id('labourMinutes'), e.labourMinutes?.message)} {...register('labourMinutes')} />
             </FormField>
             <p className="text-sm text-ink-600" aria-live="polite">
-              Parts <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal)}</span>
+              Parts <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal, record.currency)}</span>
               {labourCost !== null && (
                 <>
                   {' '}
-                  · labour <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(labourCost)}</span> at {formatMoneyMinor(rate)} an hour · total{' '}
-                  <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal + labourCost)}</span>
+                  · labour <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(labourCost, record.currency)}</span> at {formatMoneyMinor(rate, record.currency)} an hour · total{' '}
+                  <span className="font-semibold tabular-nums text-ink-900">{formatMoneyMinor(partsTotal + labourCost, record.currency)}</span>
                 </>
               )}
               {rate === null && labour !== null && <span className="text-ink-500"> · no labour rate is set, so the cost counts parts only</span>}

@@ -383,6 +383,8 @@ export type DefectRecord = {
   parts: Part[];
   partsTotalMinor: number;
   labourRateMinorPerHour: number | null;
+  /** ISO 4217 code of every amount on the record (the `currency` setting). */
+  currency: string;
   reportedBy: string | null;
   reportedById: number | null;
   assignedTo: string | null;
